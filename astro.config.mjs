@@ -1,0 +1,21 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+
+const port = Number(process.env.PORT ?? 4321);
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react()],
+  server: { host: '127.0.0.1', port },
+  security: {
+    checkOrigin: true,
+    allowedDomains: [{ hostname: 'localhost' }, { hostname: '127.0.0.1' }],
+  },
+  vite: {
+    plugins: [tailwindcss()],
+  },
+});

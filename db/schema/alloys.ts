@@ -1,0 +1,25 @@
+import { int, mysqlEnum, mysqlTable, varchar, text } from 'drizzle-orm/mysql-core';
+import { timestamps } from './columns';
+
+export const alloyFamilies = [
+  'titanium',
+  'carbon-steel',
+  'stainless-steel',
+  'copper',
+  'bronze',
+  'brass',
+  'zirconium',
+  'niobium',
+] as const;
+export type AlloyFamily = (typeof alloyFamilies)[number];
+
+/** The alloy catalogue: designations are the standard names (UNS where one exists). */
+export const alloys = mysqlTable('alloys', {
+  id: int('id').autoincrement().primaryKey(),
+  slug: varchar('slug', { length: 64 }).notNull().unique(),
+  name: varchar('name', { length: 128 }).notNull(),
+  family: mysqlEnum('family', alloyFamilies).notNull(),
+  uns: varchar('uns', { length: 16 }),
+  notes: text('notes'),
+  ...timestamps,
+});

@@ -1,0 +1,6 @@
+export * from './columns';
+export * from './users';
+export * from './alloys';
+export * from './coupons';
+export * from './photos';
+export * from './classes';
