@@ -8,6 +8,7 @@ const port = Number(process.env.PORT ?? 4321);
 
 export default defineConfig({
   output: 'server',
+  outDir: process.env.OXBLOOM_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react()],
   server: { host: '127.0.0.1', port },

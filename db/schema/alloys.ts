@@ -1,17 +1,6 @@
 import { int, mysqlEnum, mysqlTable, varchar, text } from 'drizzle-orm/mysql-core';
+import { alloyFamilies } from '../../src/lib/alloys';
 import { timestamps } from './columns';
-
-export const alloyFamilies = [
-  'titanium',
-  'carbon-steel',
-  'stainless-steel',
-  'copper',
-  'bronze',
-  'brass',
-  'zirconium',
-  'niobium',
-] as const;
-export type AlloyFamily = (typeof alloyFamilies)[number];
 
 /** The alloy catalogue: designations are the standard names (UNS where one exists). */
 export const alloys = mysqlTable('alloys', {

@@ -4,3 +4,4 @@ export * from './alloys';
 export * from './coupons';
 export * from './photos';
 export * from './classes';
+export * from './settings';

@@ -1,0 +1,68 @@
+// Seeds the alloy catalogue (every run, by slug) and the invented demo (first run only, unless
+// OXBLOOM_DEMO=0). Run with DATABASE_URL set; `npm start` and `npm test` do it for you.
+import { hash } from '@node-rs/argon2';
+import { eq, inArray, sql } from 'drizzle-orm';
+import { createDatabase, type Database } from './client';
+import { alloys, appSettings, couponLayers, coupons, users } from './schema';
+import { alloyCatalogue, layerKeyOf } from '../src/lib/alloys';
+import { demoPassword, demoPeople } from './seed-data/people';
+import { demoCoupons } from './seed-data/coupons';
+
+const DEMO_MARKER = 'demo-seeded';
+
+async function seedAlloys(db: Database) {
+  for (const alloy of alloyCatalogue) {
+    await db
+      .insert(alloys)
+      .values(alloy)
+      .onDuplicateKeyUpdate({ set: { name: alloy.name, family: alloy.family, uns: alloy.uns } });
+  }
+}
+
+async function seedDemo(db: Database) {
+  const passwordHash = await hash(demoPassword);
+  for (const person of demoPeople) {
+    await db
+      .insert(users)
+      .values({ ...person, passwordHash, emailVerified: new Date() })
+      .onDuplicateKeyUpdate({ set: { role: person.role } });
+  }
+  const people = await db.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, demoPeople.map((person) => person.email)));
+  const idByEmail = new Map(people.map((person) => [person.email, person.id]));
+  const alloyRows = await db.select({ id: alloys.id, slug: alloys.slug }).from(alloys);
+  const alloyIdBySlug = new Map(alloyRows.map((alloy) => [alloy.slug, alloy.id]));
+
+  const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
+  for (const demo of demoCoupons(owners)) {
+    await db.transaction(async (tx) => {
+      const [{ id }] = await tx
+        .insert(coupons)
+        .values({ ...demo.coupon, ownerId: idByEmail.get(demo.ownerEmail)!, layerKey: layerKeyOf(demo.layers) })
+        .$returningId();
+      await tx.insert(couponLayers).values(demo.layers.map((slug, position) => ({ couponId: id, position, alloyId: alloyIdBySlug.get(slug)! })));
+    });
+  }
+}
+
+async function main() {
+  const url = process.env.DATABASE_URL;
+  if (!url) throw new Error('DATABASE_URL is not set.');
+  const { db, pool } = createDatabase(url, 2);
+  try {
+    await seedAlloys(db);
+    const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, DEMO_MARKER));
+    if (marker) return console.log('[oxbloom] demo already seeded; kept as it is.');
+    if (process.env.OXBLOOM_DEMO === '0') return console.log('[oxbloom] OXBLOOM_DEMO=0: no demo data.');
+    await seedDemo(db);
+    await db.insert(appSettings).values({ key: DEMO_MARKER, value: new Date().toISOString() });
+    const [{ count }] = await db.select({ count: sql<number>`count(*)` }).from(coupons);
+    console.log(`[oxbloom] seeded the demo: ${demoPeople.length} people, ${count} coupons.`);
+  } finally {
+    await pool.end();
+  }
+}
+
+main().catch((error) => {
+  console.error(`[oxbloom] seeding failed: ${error.message}`);
+  process.exit(1);
+});

@@ -1,0 +1,82 @@
+// Starts and stops the private services of one profile: MariaDB, the S3 fake and the mail fake.
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import path from 'node:path';
+import { startMariadb, prepareDatabase, stopMariadb } from './mariadb.mjs';
+import { isAlive, readPid, requireFreePort, startBackground, stopByPidFile, waitForPort } from './processes.mjs';
+import { root } from './profile.mjs';
+
+const pidFile = (profile, name) => path.join(profile.runDir, `${name}.pid`);
+const logFile = (profile, name) => path.join(profile.runDir, `${name}.log`);
+
+async function startNodeService(profile, name, script, env, ports) {
+  const existing = readPid(pidFile(profile, name));
+  if (existing && isAlive(existing)) return;
+  for (const [port, variable, what] of ports) await requireFreePort(port, variable, what);
+  const pid = startBackground(process.execPath, [script], {
+    pidFile: pidFile(profile, name),
+    logFile: logFile(profile, name),
+    env,
+    cwd: root,
+  });
+  for (const [port, , what] of ports) await waitForPort(port, { pid, what });
+}
+
+export async function startServices(profile, { freshDatabase = false } = {}) {
+  mkdirSync(profile.runDir, { recursive: true });
+  await startMariadb(profile);
+  prepareDatabase(profile, { fresh: freshDatabase });
+
+  const origins = [profile.appUrl, `http://localhost:${profile.ports.app}`].join(',');
+  await startNodeService(
+    profile,
+    's3',
+    path.join(root, 'local-s3', 'server.mjs'),
+    { LOCAL_S3_PORT: String(profile.ports.s3), LOCAL_S3_DIR: profile.s3Dir, LOCAL_S3_BUCKET: profile.bucket, LOCAL_S3_ORIGINS: origins },
+    [[profile.ports.s3, profile.portVariables.s3, 'the S3 fake']],
+  );
+  await startNodeService(
+    profile,
+    'mail',
+    path.join(root, 'scripts', 'services', 'mail-fake.mjs'),
+    { MAIL_FAKE_SMTP_PORT: String(profile.ports.smtp), MAIL_FAKE_INBOX_PORT: String(profile.ports.inbox), MAIL_FAKE_DIR: profile.mailDir },
+    [
+      [profile.ports.smtp, profile.portVariables.smtp, 'the mail fake (SMTP)'],
+      [profile.ports.inbox, profile.portVariables.inbox, 'the mail fake (inbox page)'],
+    ],
+  );
+}
+
+/** Starts the built app (`node <outDir>/server/entry.mjs`) in the background. */
+export async function startApp(profile, env) {
+  await requireFreePort(profile.ports.app, profile.portVariables.app, 'the app');
+  const pid = startBackground(process.execPath, [path.join(profile.outDir, 'server', 'entry.mjs')], {
+    pidFile: pidFile(profile, 'app'),
+    logFile: logFile(profile, 'app'),
+    env,
+    cwd: root,
+  });
+  await waitForPort(profile.ports.app, { pid, what: 'The app server', timeoutMs: 30_000 });
+  return pid;
+}
+
+export async function stopServices(profile) {
+  const stopped = [];
+  for (const name of ['app', 'mail', 's3']) {
+    if (await stopByPidFile(pidFile(profile, name))) stopped.push(name);
+  }
+  if (await stopMariadb(profile)) stopped.push('mariadb');
+  return stopped;
+}
+
+/** A random secret for signing sessions, made once per profile and kept with its data. */
+export function authSecret(profile) {
+  const file = path.join(profile.dataDir, 'auth-secret');
+  if (!existsSync(file)) {
+    mkdirSync(profile.dataDir, { recursive: true });
+    writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600 });
+  }
+  return readFileSync(file, 'utf8').trim();
+}
+
+export { logFile };

@@ -1,0 +1,65 @@
+// The local SMTP fake: accepts every message on loopback, keeps each as an .eml file in
+// MAIL_FAKE_DIR, and shows them on a small inbox page (MAIL_FAKE_INBOX_PORT) on loopback.
+import { SMTPServer } from 'smtp-server';
+import { simpleParser } from 'mailparser';
+import { mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import http from 'node:http';
+import path from 'node:path';
+
+const smtpPort = Number(process.env.MAIL_FAKE_SMTP_PORT ?? 2525);
+const inboxPort = Number(process.env.MAIL_FAKE_INBOX_PORT ?? 4580);
+const directory = process.env.MAIL_FAKE_DIR ?? path.resolve('.data/dev/mail');
+mkdirSync(directory, { recursive: true });
+
+let sequence = 0;
+const smtp = new SMTPServer({
+  authOptional: true,
+  disabledCommands: ['STARTTLS'],
+  banner: 'Oxbloom local mail fake',
+  onData(stream, session, callback) {
+    const chunks = [];
+    stream.on('data', (chunk) => chunks.push(chunk));
+    stream.on('end', () => {
+      sequence += 1;
+      const name = `${Date.now()}-${String(sequence).padStart(4, '0')}.eml`;
+      writeFileSync(path.join(directory, name), Buffer.concat(chunks));
+      callback();
+    });
+  },
+});
+smtp.on('error', (error) => console.error('mail fake:', error.message));
+smtp.listen(smtpPort, '127.0.0.1');
+
+const escape = (text) => String(text ?? '').replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
+
+async function inboxPage() {
+  const files = readdirSync(directory).filter((name) => name.endsWith('.eml')).sort().reverse().slice(0, 100);
+  const rows = [];
+  for (const file of files) {
+    const mail = await simpleParser(readFileSync(path.join(directory, file)));
+    rows.push(`<li><a href="/messages/${escape(file)}">${escape(mail.subject)}</a> to ${escape(mail.to?.text)} · ${escape(mail.date?.toISOString())}</li>`);
+  }
+  return `<!doctype html><meta charset="utf-8"><title>Oxbloom local inbox</title><h1>Captured mail (${files.length})</h1><ul>${rows.join('')}</ul>`;
+}
+
+async function messagePage(file) {
+  const mail = await simpleParser(readFileSync(path.join(directory, file)));
+  const body = mail.html || `<pre>${escape(mail.text)}</pre>`;
+  return `<!doctype html><meta charset="utf-8"><title>${escape(mail.subject)}</title><p><a href="/">Inbox</a></p><h1>${escape(mail.subject)}</h1><p>To ${escape(mail.to?.text)}</p>${body}`;
+}
+
+const inbox = http.createServer(async (request, response) => {
+  try {
+    const match = /^\/messages\/([\w.-]+\.eml)$/.exec(request.url ?? '');
+    const html = match ? await messagePage(match[1]) : await inboxPage();
+    response.writeHead(200, { 'content-type': 'text/html; charset=utf-8' }).end(html);
+  } catch {
+    response.writeHead(404, { 'content-type': 'text/plain' }).end('No such message');
+  }
+});
+inbox.listen(inboxPort, '127.0.0.1');
+
+console.log(`mail fake: SMTP 127.0.0.1:${smtpPort}, inbox http://127.0.0.1:${inboxPort}, files in ${directory}`);
+const stop = () => { smtp.close(() => process.exit(0)); inbox.close(); setTimeout(() => process.exit(0), 2000).unref(); };
+process.on('SIGTERM', stop);
+process.on('SIGINT', stop);

@@ -1,0 +1,37 @@
+// The steps between "services are up" and "the app serves": migrate, seed, build.
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { SetupError } from './processes.mjs';
+import { root } from './profile.mjs';
+
+const tsx = path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
+const astro = path.join(root, 'node_modules', 'astro', 'astro.js');
+
+function runNode(args, env, what) {
+  const result = spawnSync(process.execPath, args, { stdio: 'inherit', cwd: root, env: { ...process.env, ...env } });
+  if (result.status !== 0) throw new SetupError(`${what} failed (exit ${result.status}); see the lines above.`);
+}
+
+export const migrate = (env) => runNode([tsx, 'scripts/migrate.ts'], env, 'Applying the database migrations');
+export const seed = (env) => runNode([tsx, 'db/seed.ts'], env, 'Seeding the database');
+
+function newestChange(entry) {
+  if (!existsSync(entry)) return 0;
+  const stat = statSync(entry);
+  if (!stat.isDirectory()) return stat.mtimeMs;
+  let newest = stat.mtimeMs;
+  for (const name of readdirSync(entry)) newest = Math.max(newest, newestChange(path.join(entry, name)));
+  return newest;
+}
+
+/** Builds the app into profile.outDir unless the last build is newer than every source file. */
+export function build(profile, env) {
+  const stamp = path.join(profile.outDir, '.built');
+  const sources = ['src', 'public', 'db', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json'].map((entry) => path.join(root, entry));
+  const lastBuild = existsSync(stamp) ? statSync(stamp).mtimeMs : 0;
+  if (lastBuild > Math.max(...sources.map(newestChange))) return false;
+  runNode([astro, 'build', '--silent'], { ...env, OXBLOOM_OUT_DIR: profile.outDir, ASTRO_TELEMETRY_DISABLED: '1' }, 'Building the app');
+  writeFileSync(stamp, new Date().toISOString());
+  return true;
+}

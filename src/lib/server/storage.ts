@@ -1,0 +1,76 @@
+import {
+  DeleteObjectsCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+} from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { config } from './config';
+
+let client: S3Client | undefined;
+
+/** The S3 client. Checksums only when required: s3rver stores chunk framing otherwise. */
+export function s3(): S3Client {
+  const settings = config();
+  client ??= new S3Client({
+    endpoint: settings.S3_ENDPOINT,
+    region: settings.S3_REGION,
+    forcePathStyle: true,
+    credentials: { accessKeyId: settings.S3_ACCESS_KEY_ID, secretAccessKey: settings.S3_SECRET_ACCESS_KEY },
+    requestChecksumCalculation: 'WHEN_REQUIRED',
+    responseChecksumValidation: 'WHEN_REQUIRED',
+  });
+  return client;
+}
+
+const bucket = () => config().S3_BUCKET;
+
+export async function pingStorage(): Promise<void> {
+  await s3().send(new HeadBucketCommand({ Bucket: bucket() }));
+}
+
+export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
+  await s3().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType }));
+}
+
+/** Reads a whole object; undefined when it does not exist. */
+export async function getObject(key: string): Promise<Uint8Array | undefined> {
+  try {
+    const result = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
+    return result.Body ? await result.Body.transformToByteArray() : new Uint8Array();
+  } catch (error) {
+    if ((error as { name?: string }).name === 'NoSuchKey') return undefined;
+    throw error;
+  }
+}
+
+export async function deleteObjects(keys: string[]): Promise<void> {
+  for (let start = 0; start < keys.length; start += 1000) {
+    const batch = keys.slice(start, start + 1000);
+    if (batch.length === 0) continue;
+    await s3().send(new DeleteObjectsCommand({ Bucket: bucket(), Delete: { Objects: batch.map((Key) => ({ Key })) } }));
+  }
+}
+
+export async function listKeys(prefix: string): Promise<string[]> {
+  const keys: string[] = [];
+  let token: string | undefined;
+  do {
+    const page = await s3().send(new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix, ContinuationToken: token }));
+    for (const item of page.Contents ?? []) if (item.Key) keys.push(item.Key);
+    token = page.IsTruncated ? page.NextContinuationToken : undefined;
+  } while (token);
+  return keys;
+}
+
+/** A presigned PUT the browser uses to upload straight to storage. */
+export async function presignPut(key: string, contentType: string, expiresInSeconds: number): Promise<string> {
+  return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), { expiresIn: expiresInSeconds });
+}
+
+/** A presigned GET for showing a stored file. */
+export async function presignGet(key: string, expiresInSeconds = 3600): Promise<string> {
+  return getSignedUrl(s3(), new GetObjectCommand({ Bucket: bucket(), Key: key }), { expiresIn: expiresInSeconds });
+}

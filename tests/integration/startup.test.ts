@@ -1,0 +1,73 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import net from 'node:net';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { loadProfile } from '../../scripts/services/profile.mjs';
+import { startMariadb, prepareDatabase, stopMariadb } from '../../scripts/services/mariadb.mjs';
+import { readPid } from '../../scripts/services/processes.mjs';
+
+const dataRoot = mkdtempSync(path.join(tmpdir(), 'oxbloom-startup-'));
+afterAll(() => rmSync(dataRoot, { recursive: true, force: true }));
+
+function occupy(): Promise<net.Server> {
+  return new Promise((resolve) => {
+    const server = net.createServer();
+    server.listen(0, '127.0.0.1', () => resolve(server));
+  });
+}
+const portOf = (server: net.Server) => (server.address() as net.AddressInfo).port;
+
+async function freePort(): Promise<number> {
+  const server = await occupy();
+  const port = portOf(server);
+  await new Promise((resolve) => server.close(resolve));
+  return port;
+}
+
+describe('npm start when a port is taken', () => {
+  it.each([
+    ['PORT', 'the app'],
+    ['OXBLOOM_DB_PORT', 'MariaDB'],
+    ['OXBLOOM_S3_PORT', 'the S3 fake'],
+  ])('stops with one line naming %s', async (variable, what) => {
+    const blocker = await occupy();
+    const taken = portOf(blocker);
+    const env: Record<string, string> = {
+      ...(process.env as Record<string, string>),
+      OXBLOOM_DATA_ROOT: dataRoot,
+      PORT: String(await freePort()),
+      OXBLOOM_DB_PORT: String(await freePort()),
+      OXBLOOM_S3_PORT: String(await freePort()),
+      OXBLOOM_SMTP_PORT: String(await freePort()),
+      OXBLOOM_INBOX_PORT: String(await freePort()),
+      [variable]: String(taken),
+    };
+    const run = spawnSync(process.execPath, ['scripts/start.mjs'], { encoding: 'utf8', env, timeout: 60_000 });
+    blocker.close();
+    expect(run.status).toBe(1);
+    const lastLine = run.stderr.trim().split('\n').pop();
+    expect(lastLine).toBe(`[oxbloom] Port ${taken} for ${what} is already in use: stop what uses it, or set ${variable} to a free port.`);
+  });
+});
+
+describe('a private MariaDB killed without warning', () => {
+  it('keeps every committed row when started again', async () => {
+    const environment = { OXBLOOM_DATA_ROOT: dataRoot, OXBLOOM_TEST_DB_PORT: String(await freePort()) };
+    const profile = loadProfile('test', environment);
+    const sql = (statement: string) =>
+      spawnSync('mariadb', ['--no-defaults', `--socket=${profile.socket}`, '-N', '-e', statement], { encoding: 'utf8' });
+
+    await startMariadb(profile);
+    prepareDatabase(profile);
+    expect(sql('CREATE TABLE oxbloom.kept (id INT PRIMARY KEY); INSERT INTO oxbloom.kept VALUES (1), (2), (3);').status).toBe(0);
+
+    process.kill(readPid(path.join(profile.runDir, 'mariadb.pid'))!, 'SIGKILL');
+    await new Promise((resolve) => setTimeout(resolve, 500));
+
+    await startMariadb(profile);
+    expect(sql('SELECT COUNT(*) FROM oxbloom.kept;').stdout.trim()).toBe('3');
+    await stopMariadb(profile);
+  }, 90_000);
+});
