@@ -1,0 +1,5 @@
+export { analyseImage } from './analyse';
+export { CLUSTER_RULE } from './choose-clusters';
+export { PIXEL_LIMITS, type PixelImage } from './pixels';
+export { AnalysisInputError, clipRegion, scaleRegion, wholeImage, type Size } from './regions';
+export * from './schemas';

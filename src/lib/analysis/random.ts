@@ -1,0 +1,18 @@
+/**
+ * A small seeded pseudo-random generator (mulberry32, Tommy Ettinger, public domain), so
+ * clustering picks the same starting centres for the same input every time.
+ * Returns floats in [0, 1).
+ */
+export function seededRandom(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** The seed every analysis starts from. */
+export const ANALYSIS_SEED = 0x0b100d;
