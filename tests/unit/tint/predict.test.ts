@@ -1,0 +1,110 @@
+import { describe, expect, it } from 'vitest';
+import { findTintModel } from '../../../src/lib/tint/models';
+import { ModelUnavailableError, predictTint } from '../../../src/lib/tint/predict';
+
+const model = (slug: string) => findTintModel(slug)!;
+const heat = (slug: string, temperatureC: number, atmosphere: 'air' | 'argon' | 'other' = 'air', holdMinutes = 30) =>
+  predictTint(model(slug), { process: 'heat', temperatureC, holdMinutes, atmosphere });
+const codes = (slug: string, temperatureC: number, atmosphere?: 'air' | 'argon' | 'other') =>
+  heat(slug, temperatureC, atmosphere).warnings.map((warning) => warning.code);
+
+describe('prediction for a planned heat', () => {
+  it('gives a band low ≤ mid ≤ high with colours across it, on reference data alone', () => {
+    const prediction = heat('ti-grade-5', 550, 'air', 60);
+    expect(prediction.alloy).toBe('ti-grade-5');
+    expect(prediction.basis).toBe('reference');
+    expect(prediction.couponCount).toBe(0);
+    expect(prediction.thicknessNm.low).toBeLessThan(prediction.thicknessNm.mid);
+    expect(prediction.thicknessNm.mid).toBeLessThan(prediction.thicknessNm.high);
+    expect(prediction.band.length).toBeGreaterThan(2);
+    expect(prediction.band[0].thicknessNm).toBeCloseTo(prediction.thicknessNm.low, 0);
+    expect(prediction.colour.hex).toMatch(/^#[0-9a-f]{6}$/);
+  });
+
+  it('a grade without its own anchors gets a wider band than Ti-6Al-4V', () => {
+    // Source: models.ts priors — ±20 % for Ti-6Al-4V (anchored, Int. J. Biomaterials 2015) and ±35 % for grade 2 (unanchored).
+    const width = (slug: string) => {
+      const { low, high } = heat(slug, 550, 'air', 60).thicknessNm;
+      return high / low;
+    };
+    expect(width('ti-grade-2')).toBeGreaterThan(width('ti-grade-5'));
+  });
+
+  it.each(['steel-304', 'copper-c11000', 'bronze-c51000', 'brass-c26000'])('%s answers "library data only"', (slug) => {
+    expect(() => heat(slug, 300)).toThrow(ModelUnavailableError);
+    expect(() => heat(slug, 300)).toThrow(/library data only/);
+  });
+
+  it('zirconium has optics but no heat kinetics: library data only for a heat', () => {
+    expect(() => heat('zirconium-702', 500)).toThrow(/library data only/);
+  });
+});
+
+describe('warnings for the planned heat', () => {
+  it('every warning has a code, a message and a source', () => {
+    for (const warning of heat('ti-grade-5', 1050).warnings) {
+      expect(warning.code).toMatch(/^[a-z-]+$/);
+      expect(warning.message.length).toBeGreaterThan(20);
+      expect(warning.source.length).toBeGreaterThan(10);
+    }
+  });
+
+  it.each([
+    // Forge-welding range ≈ 925–1095 °C: common practice (no published source); warned from 900 °C.
+    ['ti-grade-5', 1000, 'forge-welding-range', true],
+    ['ti-grade-5', 880, 'forge-welding-range', false],
+    // Fe–Ti eutectic ≈ 1085 °C: from memory of the Fe–Ti phase diagram; warned with the forge-welding range.
+    ['ti-grade-2', 1050, 'fe-ti-eutectic', true],
+    ['ti-grade-2', 700, 'fe-ti-eutectic', false],
+    // Alpha case: common practice, warned from 600 °C in air.
+    ['ti-grade-5', 650, 'alpha-case', true],
+    ['ti-grade-5', 550, 'alpha-case', false],
+    // Beta transus ≈ 995 °C Ti-6Al-4V, ≈ 910 °C grade 2 (from memory), warned 30 °C below.
+    ['ti-grade-5', 970, 'beta-transus', true],
+    ['ti-grade-5', 940, 'beta-transus', false],
+    ['ti-grade-2', 890, 'beta-transus', true],
+    ['ti-grade-2', 870, 'beta-transus', false],
+    // Colouring a hardened blade tempers it: common practice, from 175 °C.
+    ['steel-1095', 280, 'tempers-hardened-steel', true],
+    ['steel-1095', 150, 'tempers-hardened-steel', false],
+    ['steel-1095', 280, 'alpha-case', false],
+  ] as const)('%s at %i °C: %s → %s', (slug, temperatureC, code, expected) => {
+    expect(codes(slug, temperatureC).includes(code)).toBe(expected);
+  });
+
+  it('the eutectic warning says "at or above" once the heat reaches 1085 °C', () => {
+    const warning = heat('ti-grade-5', 1100).warnings.find((w) => w.code === 'fe-ti-eutectic')!;
+    expect(warning.message).toMatch(/at or above/);
+  });
+
+  it('argon: no alpha-case warning, but an inert-gas caution', () => {
+    // Source: BRIEF.md safety section (argon displaces oxygen in closed spaces): common practice.
+    const argon = codes('ti-grade-5', 950, 'argon');
+    expect(argon).not.toContain('alpha-case');
+    expect(argon).toContain('inert-gas');
+  });
+
+  it('outside the temperatures the reference data cover, says the band is extrapolated', () => {
+    expect(codes('ti-grade-5', 300)).toContain('outside-reference-range');
+    expect(codes('ti-grade-5', 550)).not.toContain('outside-reference-range');
+    expect(codes('steel-1084', 420)).toContain('outside-reference-range');
+  });
+});
+
+describe('prediction for anodizing', () => {
+  it('the band is the published growth per volt times the voltage', () => {
+    // Source: 2.2–2.8 nm/V (Ohtsuka, Masuda & Sato 1985 [from memory]; Int. J. Biomaterials 2015 Table 1), mid 2.4.
+    const prediction = predictTint(model('ti-grade-2'), { process: 'anodize', volts: 30 });
+    expect(prediction.thicknessNm).toEqual({ low: 66, mid: 72, high: 84 });
+    expect(prediction.warnings.map((warning) => warning.code)).toEqual(['anodizing-bath']);
+  });
+
+  it('warns of shock above 60 V', () => {
+    const prediction = predictTint(model('niobium'), { process: 'anodize', volts: 90 });
+    expect(prediction.warnings.map((warning) => warning.code)).toContain('high-voltage');
+  });
+
+  it('steel has no anodizing model', () => {
+    expect(() => predictTint(model('steel-1084'), { process: 'anodize', volts: 20 })).toThrow(/library data only/);
+  });
+});
