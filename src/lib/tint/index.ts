@@ -1,0 +1,17 @@
+/** The tint science: pure, framework-free; safe to import from islands and routes alike. */
+export { alloys, alloyFamilies, findAlloy, isAlloySlug, type Alloy, type AlloyFamily, type AlloySlug } from './alloys';
+export { tintModels, findTintModel, missingModelReason, type TintModel, type HeatGrowthPrior } from './models';
+export { colourFromXyz, colourFromLab, hexToLab, type Lab, type TintColour } from './colour';
+export { deltaE2000 } from './delta-e';
+export { illuminants, type Illuminant } from './illuminants';
+export { filmSystems, type FilmSystemId } from './film-systems';
+export { buildLadder, colourAt, tintNameAt, MAX_THICKNESS_NM, type LadderStep } from './ladder';
+export { tintNames, type TintName } from './tint-names';
+export { heatThicknessNm, anodizeThicknessNm, fahrenheitToCelsius, type HeatGrowthLaw } from './growth';
+export { thicknessCandidates, type ThicknessCandidate } from './inverse';
+export { fitGrowth, FitCache, type CouponObservation, type GrowthFit } from './fit';
+export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';
+export { planPair, type PairSuggestion } from './plan-pair';
+export { heatWarnings, anodizeWarnings, type HeatWarning } from './warnings';
+export * from './requests';
+export { ladderResponse, estimateResponse, planPairResponse } from './responses';

@@ -1,0 +1,51 @@
+import { buildLadder } from './ladder';
+import { thicknessCandidates } from './inverse';
+import { planPair, type PairSuggestion } from './plan-pair';
+import { roundLab } from './predict';
+import { hexToLab } from './colour';
+import type { TintModel } from './models';
+import type { EstimateRequest, LadderRequest, PlanPairRequest } from './requests';
+import { requestLab } from './requests';
+import type { GrowthFit } from './fit';
+
+/** The JSON bodies of the tint routes, built from validated requests (rounded for the wire). */
+
+export function ladderResponse(model: TintModel, request: LadderRequest) {
+  const steps = buildLadder(model.optics!, request, request.illuminant);
+  return {
+    alloy: model.alloy.slug,
+    illuminant: request.illuminant,
+    steps: steps.map((step) => ({
+      thicknessNm: step.thicknessNm,
+      hex: step.hex,
+      lab: roundLab(step.lab),
+      oklab: roundLab(step.oklab, 4),
+      name: step.name,
+      outOfGamut: step.outOfGamut,
+    })),
+  };
+}
+
+export function estimateResponse(model: TintModel, request: EstimateRequest) {
+  const candidates = thicknessCandidates(model.optics!, requestLab(request));
+  return {
+    alloy: model.alloy.slug,
+    candidates: candidates.map((candidate) => ({ ...candidate, deltaE00: Number(candidate.deltaE00.toFixed(2)) })),
+  };
+}
+
+export function planPairResponse(
+  models: readonly [TintModel, TintModel],
+  request: PlanPairRequest,
+  fits?: readonly [GrowthFit | null, GrowthFit | null],
+): { suggestions: PairSuggestion[] } {
+  const target = request.target ? ([hexToLab(request.target[0])!, hexToLab(request.target[1])!] as const) : undefined;
+  return {
+    suggestions: planPair(models, {
+      target,
+      temperatureC: request.temperatureC,
+      holdMinutes: request.holdMinutes,
+      fits,
+    }),
+  };
+}
