@@ -142,7 +142,7 @@ function lloyd(points: Float64Array, initial: Float64Array, maxIterations: numbe
 }
 
 /** The best of `restarts` k-means++ runs (lowest WCSS); deterministic for a given `random`. */
-export function fitKMeans(points: Float64Array, k: number, random: () => number, restarts = 2, maxIterations = 40): ClusterFit {
+export function fitKMeans(points: Float64Array, k: number, random: () => number, restarts = 2, maxIterations = 20): ClusterFit {
   let best: ClusterFit | undefined;
   for (let run = 0; run < restarts; run += 1) {
     const fit = lloyd(points, seedCentres(points, k, random), maxIterations);
