@@ -46,9 +46,13 @@ const PRIOR_SCATTER_WEIGHT = 3;
 /** Huber's tuning constant: residuals beyond 1.5 σ lose weight in proportion. */
 const HUBER_K = 1.5;
 const ITERATIONS = 30;
+/** Stop when no parameter moves by more than this between iterations. */
+const CONVERGED = 1e-7;
 const OUTLIER_SDS = 3;
 /** Spread of ln(thickness) used only to pick the interference order a prior makes most likely. */
 const ORDER_CHOICE_SPREAD = 0.5;
+/** Orders are searched from a fifth to five times the prior's expected thickness. */
+const ORDER_SEARCH_FACTOR = 5;
 
 /** The regressors [1, ln(t/t_ref), (1/RT_ref − 1/RT) in mol/kJ] of a heat under a law's reference. */
 export function heatRegressors(law: HeatGrowthLaw, temperatureC: number, holdMinutes: number): [number, number, number] {
@@ -76,56 +80,79 @@ interface Point {
  */
 function robustMapFit(points: readonly Point[], mean: readonly number[], sd: readonly number[]) {
   const free = sd.map((value, i) => (value > 0 ? i : -1)).filter((i) => i >= 0);
-  const theta = [...mean];
-  const huber = points.map(() => 1);
+  const k = free.length;
+  const n = points.length;
+  // The free regressors and the response less the fixed parameters' part, as flat arrays.
+  const xs = new Float64Array(n * k);
+  const ys = new Float64Array(n);
+  const weights = new Float64Array(n);
+  points.forEach((point, p) => {
+    let fixedPart = 0;
+    point.x.forEach((value, j) => {
+      if (sd[j] <= 0) fixedPart += value * mean[j];
+    });
+    free.forEach((i, r) => (xs[p * k + r] = point.x[i]));
+    ys[p] = point.y - fixedPart;
+    weights[p] = point.weight;
+  });
+  const huber = new Float64Array(n).fill(1);
+  const residuals = new Float64Array(n);
+  const beta = free.map((i) => mean[i]);
   let sigma = PRIOR_SCATTER;
   let inverse: number[][] = [];
-  let residuals: number[] = [];
   for (let iteration = 0; iteration < ITERATIONS; iteration += 1) {
     const normal = free.map((i, r) => free.map((_, c) => (r === c ? 1 / sd[i] ** 2 : 0)));
     const rhs = free.map((i) => mean[i] / sd[i] ** 2);
-    points.forEach((point, p) => {
-      const w = (point.weight * huber[p]) / sigma ** 2;
-      let fixedPart = 0;
-      point.x.forEach((value, j) => {
-        if (!free.includes(j)) fixedPart += value * mean[j];
-      });
-      free.forEach((i, r) => {
-        rhs[r] += w * point.x[i] * (point.y - fixedPart);
-        free.forEach((j, c) => {
-          normal[r][c] += w * point.x[i] * point.x[j];
-        });
-      });
-    });
+    const scale = 1 / sigma ** 2;
+    for (let p = 0; p < n; p += 1) {
+      const w = weights[p] * huber[p] * scale;
+      for (let r = 0; r < k; r += 1) {
+        const xr = xs[p * k + r] * w;
+        rhs[r] += xr * ys[p];
+        for (let c = 0; c < k; c += 1) normal[r][c] += xr * xs[p * k + c];
+      }
+    }
     inverse = invertMatrix(normal);
     const solution = multiplyVector(inverse, rhs);
-    const previous = [...theta];
-    free.forEach((i, r) => {
-      theta[i] = solution[r];
-    });
+    const change = Math.max(...solution.map((value, r) => Math.abs(value - beta[r])));
+    solution.forEach((value, r) => (beta[r] = value));
+
     let weightedSquares = PRIOR_SCATTER_WEIGHT * PRIOR_SCATTER ** 2;
     let weightSum = PRIOR_SCATTER_WEIGHT;
-    residuals = points.map((point) => point.y - point.x.reduce((sum, value, j) => sum + value * theta[j], 0));
-    residuals.forEach((residual, p) => {
-      weightedSquares += points[p].weight * huber[p] * residual ** 2;
-      weightSum += points[p].weight * huber[p];
-    });
+    for (let p = 0; p < n; p += 1) {
+      let fitted = 0;
+      for (let r = 0; r < k; r += 1) fitted += xs[p * k + r] * beta[r];
+      residuals[p] = ys[p] - fitted;
+      weightedSquares += weights[p] * huber[p] * residuals[p] ** 2;
+      weightSum += weights[p] * huber[p];
+    }
     sigma = Math.sqrt(weightedSquares / weightSum);
-    residuals.forEach((residual, p) => {
-      huber[p] = Math.abs(residual) <= HUBER_K * sigma ? 1 : (HUBER_K * sigma) / Math.abs(residual);
-    });
-    if (theta.every((value, i) => Math.abs(value - previous[i]) < 1e-9)) break;
+    for (let p = 0; p < n; p += 1) {
+      const size = Math.abs(residuals[p]);
+      huber[p] = size <= HUBER_K * sigma ? 1 : (HUBER_K * sigma) / size;
+    }
+    if (change < CONVERGED) break;
   }
+  const theta = [...mean];
+  free.forEach((i, r) => (theta[i] = beta[r]));
   const covariance = mean.map(() => mean.map(() => 0));
   free.forEach((i, r) => free.forEach((j, c) => (covariance[i][j] = inverse[r][c])));
-  return { theta, covariance, sigma, outlierCount: residuals.filter((residual) => Math.abs(residual) > OUTLIER_SDS * sigma).length };
+  let outlierCount = 0;
+  for (let p = 0; p < n; p += 1) if (Math.abs(residuals[p]) > OUTLIER_SDS * sigma) outlierCount += 1;
+  return { theta, covariance, sigma, outlierCount };
 }
 
 /** The thickness of a coupon: measured, or from its colour at the order the prior expects. */
 function observedThickness(model: TintModel, thicknessNm: number | undefined, lab: Lab | undefined, expectedNm: number) {
   if (thicknessNm !== undefined) return thicknessNm > 0 ? { thicknessNm, match: 1 } : undefined;
   if (!lab || !model.optics) return undefined;
-  const candidates = thicknessCandidates(model.optics, lab, { maxDeltaE00: 15 });
+  const candidates = thicknessCandidates(model.optics, lab, {
+    maxDeltaE00: 15,
+    minThicknessNm: expectedNm / ORDER_SEARCH_FACTOR,
+    maxThicknessNm: Math.min(400, expectedNm * ORDER_SEARCH_FACTOR),
+    refineBest: 2,
+    refineWindowNm: 1,
+  });
   const chosen = mostLikelyCandidate(candidates, expectedNm, ORDER_CHOICE_SPREAD);
   if (!chosen || chosen.thicknessNm <= 0) return undefined;
   return { thicknessNm: chosen.thicknessNm, match: 1 / (1 + (chosen.deltaE00 / 5) ** 2) };

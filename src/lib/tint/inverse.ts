@@ -12,17 +12,22 @@ export interface ThicknessCandidate {
 }
 
 export interface InverseOptions {
+  /** Thinnest film searched (nm). */
+  minThicknessNm?: number;
   /** Thickest film searched (nm); colours above ~400 nm are too washed out to tell apart. */
   maxThicknessNm?: number;
+  /** Refine only this many of the closest coarse matches with ΔE00 (all of them by default). */
+  refineBest?: number;
+  /** Half-width of the ΔE00 refinement around each coarse match (nm). */
+  refineWindowNm?: number;
   /** Candidates worse than this ΔE00 are dropped (the best one is always kept). */
   maxDeltaE00?: number;
   limit?: number;
 }
 
-const DEFAULTS = { maxThicknessNm: 400, maxDeltaE00: 10, limit: 6 };
-/** Coarse pass: 1 nm steps with ΔE*ab (cheap), then ΔE00 within ±REFINE_NM of each local minimum. */
+/** Coarse pass: 1 nm steps with ΔE*ab (cheap), then ΔE00 within ±refineWindowNm of each local minimum. */
 const COARSE_NM = 1;
-const REFINE_NM = 2;
+const DEFAULTS = { minThicknessNm: 0, maxThicknessNm: 400, maxDeltaE00: 10, limit: 6, refineBest: Infinity, refineWindowNm: 2 };
 /** ΔE*ab runs up to about three times ΔE00 on saturated colours; wider than that cannot pass. */
 const COARSE_FACTOR = 3;
 
@@ -54,10 +59,11 @@ function ladderLabs(system: FilmSystemId, ladder: ReferenceLadder): LabArrays {
  * order that fits (each local minimum of the colour difference along the ladder), best first.
  */
 export function thicknessCandidates(system: FilmSystemId, lab: Lab, options: InverseOptions = {}): ThicknessCandidate[] {
-  const { maxThicknessNm, maxDeltaE00, limit } = { ...DEFAULTS, ...options };
+  const { minThicknessNm, maxThicknessNm, maxDeltaE00, limit, refineBest, refineWindowNm } = { ...DEFAULTS, ...options };
   const ladder = referenceLadder(system);
   const labs = ladderLabs(system, ladder);
   const stride = Math.round(COARSE_NM / ladder.stepNm);
+  const first = Math.max(0, Math.round(minThicknessNm / ladder.stepNm));
   const last = Math.min(ladder.colours.length - 1, Math.round(maxThicknessNm / ladder.stepNm));
   const coarseLimit = maxDeltaE00 * COARSE_FACTOR;
 
@@ -68,12 +74,12 @@ export function thicknessCandidates(system: FilmSystemId, lab: Lab, options: Inv
     return dl * dl + da * da + db * db;
   };
 
-  const minima: number[] = [];
-  let bestIndex = 0;
+  let minima: number[] = [];
+  let bestIndex = first;
   let bestDistance = Infinity;
   let before = Infinity;
-  let here = distance(0);
-  for (let i = 0; i <= last; i += stride) {
+  let here = distance(first);
+  for (let i = first; i <= last; i += stride) {
     const after = i + stride <= last ? distance(i + stride) : Infinity;
     if (here <= before && here < after && here <= coarseLimit * coarseLimit) minima.push(i);
     if (here < bestDistance) {
@@ -84,12 +90,13 @@ export function thicknessCandidates(system: FilmSystemId, lab: Lab, options: Inv
     here = after;
   }
   if (!minima.includes(bestIndex)) minima.push(bestIndex);
+  if (minima.length > refineBest) minima = minima.sort((x, y) => distance(x) - distance(y)).slice(0, refineBest);
 
-  const window = Math.round(REFINE_NM / ladder.stepNm);
+  const window = Math.round(refineWindowNm / ladder.stepNm);
   const candidates = minima.map((centre) => {
     let index = centre;
     let best = Infinity;
-    for (let i = Math.max(0, centre - window); i <= Math.min(last, centre + window); i += 1) {
+    for (let i = Math.max(first, centre - window); i <= Math.min(last, centre + window); i += 1) {
       const difference = deltaE2000(ladder.colours[i].lab, lab);
       if (difference < best) {
         best = difference;
@@ -103,7 +110,7 @@ export function thicknessCandidates(system: FilmSystemId, lab: Lab, options: Inv
   const kept: typeof candidates = [];
   for (const candidate of candidates) {
     if (kept.length > 0 && candidate.deltaE00 > maxDeltaE00) break;
-    if (kept.some((other) => Math.abs(other.index - candidate.index) * ladder.stepNm < REFINE_NM * 2)) continue;
+    if (kept.some((other) => Math.abs(other.index - candidate.index) * ladder.stepNm < 2 * Math.max(refineWindowNm, COARSE_NM))) continue;
     kept.push(candidate);
     if (kept.length === limit) break;
   }
