@@ -1,9 +1,8 @@
 import type { Lab } from './colour';
-import { arrheniusTerm, type HeatGrowthLaw } from './growth';
+import { arrheniusTerm, type AnodizeGrowth, type HeatGrowthLaw } from './growth';
 import { mostLikelyCandidate, thicknessCandidates } from './inverse';
 import { findTintModel, type HeatGrowthPrior, type TintModel } from './models';
 import { invertMatrix, multiplyVector, quadraticForm } from './small-matrix';
-import type { AnodizeGrowth } from './growth';
 
 /** One coupon's heat record and its measured film: a thickness, or a swatch colour to invert. */
 export type CouponObservation =

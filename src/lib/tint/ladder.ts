@@ -1,10 +1,9 @@
-import { weightingTable } from './colorimetry';
+import { reflectanceToXyz, weightingTable } from './colorimetry';
 import { colourFromXyz, type TintColour } from './colour';
 import { filmStack, type FilmSystemId } from './film-systems';
 import type { Illuminant } from './illuminants';
-import { interferenceOrders, tintName, type TintName } from './tint-names';
 import { reflectanceSpectrum, weightedReflectanceSeries } from './thin-film';
-import { reflectanceToXyz } from './colorimetry';
+import { interferenceOrders, tintName, type TintName } from './tint-names';
 
 /** The thickest film the model describes; colours have washed out to grey well before this. */
 export const MAX_THICKNESS_NM = 1000;

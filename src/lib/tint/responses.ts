@@ -1,14 +1,12 @@
-import { buildLadder } from './ladder';
+/** The JSON bodies of the tint routes, built from validated requests (rounded for the wire). */
+import { hexToLab } from './colour';
+import type { GrowthFit } from './fit';
 import { thicknessCandidates } from './inverse';
+import { buildLadder } from './ladder';
+import type { TintModel } from './models';
 import { planPair, type PairSuggestion } from './plan-pair';
 import { roundLab } from './predict';
-import { hexToLab } from './colour';
-import type { TintModel } from './models';
-import type { EstimateRequest, LadderRequest, PlanPairRequest } from './requests';
-import { requestLab } from './requests';
-import type { GrowthFit } from './fit';
-
-/** The JSON bodies of the tint routes, built from validated requests (rounded for the wire). */
+import { requestLab, type EstimateRequest, type LadderRequest, type PlanPairRequest } from './requests';
 
 export function ladderResponse(model: TintModel, request: LadderRequest) {
   const steps = buildLadder(model.optics!, request, request.illuminant);

@@ -35,8 +35,8 @@ export const tintNames = [
 ] as const;
 export type TintName = (typeof tintNames)[number];
 
+/** Coarse hue families, used to count interference orders (the blues end each order). */
 export type HueFamily = 'neutral' | 'yellow' | 'orange' | 'red' | 'violet' | 'blue' | 'teal' | 'green';
-
 
 /** Below this OKLCh chroma a film reads as uncoloured metal (silver or grey). */
 const NEUTRAL_CHROMA = 0.03;
