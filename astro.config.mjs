@@ -3,6 +3,7 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import auth from 'auth-astro';
 
 const port = Number(process.env.PORT ?? 4321);
 
@@ -10,7 +11,7 @@ export default defineConfig({
   output: 'server',
   outDir: process.env.OXBLOOM_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
-  integrations: [react()],
+  integrations: [react(), auth({ configFile: './src/auth.config.ts' })],
   server: { host: '127.0.0.1', port },
   security: {
     checkOrigin: true,

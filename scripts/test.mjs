@@ -45,7 +45,9 @@ async function main() {
 
     step('starting MariaDB, the S3 fake and the mail fake');
     await startServices(profile, { freshDatabase: true });
-    const env = { ...appEnvironment(profile, authSecret(profile)), ASTRO_TELEMETRY_DISABLED: '1' };
+    // TRUST_PROXY lets each test file act from its own client address (X-Forwarded-For), so
+    // per-address rate limits in one file don't trip another.
+    const env = { ...appEnvironment(profile, authSecret(profile)), ASTRO_TELEMETRY_DISABLED: '1', TRUST_PROXY: '1' };
     migrate(env);
     seed(env);
     step('building the app');

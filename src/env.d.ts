@@ -1,1 +1,8 @@
 /// <reference types="astro/client" />
+
+declare namespace App {
+  interface Locals {
+    /** The signed-in person as the session says (null when signed out); set by the middleware. */
+    user: import('./lib/server/authorise').SessionUser | null;
+  }
+}

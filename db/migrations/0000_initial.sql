@@ -208,7 +208,7 @@ CREATE TABLE `colour_sheet_items` (
 --> statement-breakpoint
 CREATE TABLE `colour_sheets` (
 	`id` int AUTO_INCREMENT NOT NULL,
-	`owner_id` varchar(255) NOT NULL,
+	`owner_id` varchar(255),
 	`class_id` int,
 	`slug` varchar(64) NOT NULL,
 	`title` varchar(160) NOT NULL,
@@ -265,7 +265,7 @@ ALTER TABLE `class_members` ADD CONSTRAINT `class_members_user_id_users_id_fk` F
 ALTER TABLE `classes` ADD CONSTRAINT `classes_instructor_id_users_id_fk` FOREIGN KEY (`instructor_id`) REFERENCES `users`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `colour_sheet_items` ADD CONSTRAINT `colour_sheet_items_sheet_id_colour_sheets_id_fk` FOREIGN KEY (`sheet_id`) REFERENCES `colour_sheets`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `colour_sheet_items` ADD CONSTRAINT `colour_sheet_items_swatch_id_swatches_id_fk` FOREIGN KEY (`swatch_id`) REFERENCES `swatches`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE `colour_sheets` ADD CONSTRAINT `colour_sheets_owner_id_users_id_fk` FOREIGN KEY (`owner_id`) REFERENCES `users`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE `colour_sheets` ADD CONSTRAINT `colour_sheets_owner_id_users_id_fk` FOREIGN KEY (`owner_id`) REFERENCES `users`(`id`) ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `colour_sheets` ADD CONSTRAINT `colour_sheets_class_id_classes_id_fk` FOREIGN KEY (`class_id`) REFERENCES `classes`(`id`) ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `invitations` ADD CONSTRAINT `invitations_class_id_classes_id_fk` FOREIGN KEY (`class_id`) REFERENCES `classes`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE `invitations` ADD CONSTRAINT `invitations_invited_by_users_id_fk` FOREIGN KEY (`invited_by`) REFERENCES `users`(`id`) ON DELETE cascade ON UPDATE no action;--> statement-breakpoint

@@ -90,9 +90,8 @@ export const colourSheets = mysqlTable(
   'colour_sheets',
   {
     id: int('id').autoincrement().primaryKey(),
-    ownerId: varchar('owner_id', { length: 255 })
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    // A published sheet outlives its author's account; it keeps only swatches that still exist.
+    ownerId: varchar('owner_id', { length: 255 }).references(() => users.id, { onDelete: 'set null' }),
     classId: int('class_id').references(() => classes.id, { onDelete: 'set null' }),
     slug: varchar('slug', { length: 64 }).notNull().unique(),
     title: varchar('title', { length: 160 }).notNull(),

@@ -41,3 +41,43 @@ export function parseValue<S extends z.ZodType>(raw: unknown, schema: S): Parsed
   const { message, field } = describeZodError(result.error);
   return { ok: false, response: problem(400, message, field) };
 }
+
+/** A 429 with Retry-After; a small page for form posts, JSON otherwise. */
+export function tooManyAttempts(retryAfterSeconds: number, request: Request): Response {
+  const minutes = Math.ceil(retryAfterSeconds / 60);
+  const message = `Too many attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
+  const headers = { 'retry-after': String(retryAfterSeconds) };
+  if (wantsHtml(request)) {
+    return new Response(
+      `<!doctype html><meta charset="utf-8"><meta name="viewport" content="width=device-width"><title>Too many attempts · Oxbloom</title><p style="font-family:sans-serif;max-width:32rem;margin:3rem auto">${message} <a href="/">Back to Oxbloom</a></p>`,
+      { status: 429, headers: { ...headers, 'content-type': 'text/html; charset=utf-8' } },
+    );
+  }
+  return json({ error: message }, 429, headers);
+}
+
+/** True for a browser's form post or page load, false for fetch/JSON clients. */
+export function wantsHtml(request: Request): boolean {
+  const accept = request.headers.get('accept') ?? '';
+  return accept.includes('text/html');
+}
+
+/** Reads a JSON body or, from a plain HTML form, its fields as strings. */
+export async function readBody(request: Request): Promise<unknown> {
+  const type = request.headers.get('content-type') ?? '';
+  if (type.includes('application/x-www-form-urlencoded') || type.includes('multipart/form-data')) {
+    return Object.fromEntries((await request.formData()).entries());
+  }
+  return request.json();
+}
+
+/** Like parseJson, for routes that take either JSON or a plain form post. */
+export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<Parsed<z.infer<S>>> {
+  let raw: unknown;
+  try {
+    raw = await readBody(request);
+  } catch {
+    return { ok: false, response: problem(400, 'The request body must be JSON or a form.') };
+  }
+  return parseValue(raw, schema);
+}

@@ -1,0 +1,81 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { api, newJar, type Jar } from '../support/app';
+import { demo, signedIn } from '../support/auth';
+
+/**
+ * Who may call what: every route × visitor, member, another member, instructor, admin, with the
+ * exact status. Bodies are chosen so nothing is changed for real (invalid input where a valid
+ * one would write). Later routes add their rows here.
+ */
+type Who = 'visitor' | 'member' | 'member2' | 'instructor' | 'admin';
+const everyone: Who[] = ['visitor', 'member', 'member2', 'instructor', 'admin'];
+
+interface Row {
+  route: string;
+  method: string;
+  path: string | ((ids: Ids) => string);
+  json?: unknown;
+  expect: Record<Who, number>;
+}
+interface Ids {
+  member2: string;
+}
+
+const all = (status: number): Record<Who, number> => ({ visitor: status, member: status, member2: status, instructor: status, admin: status });
+const signedInOnly = (status: number): Record<Who, number> => ({ ...all(status), visitor: 401 });
+const adminOnly = (status: number): Record<Who, number> => ({ visitor: 401, member: 403, member2: 403, instructor: 403, admin: status });
+
+export const matrix: Row[] = [
+  { route: 'health', method: 'GET', path: '/api/health', expect: all(200) },
+  { route: 'alloy catalogue', method: 'GET', path: '/api/alloys', expect: all(200) },
+  { route: 'sign-up, invalid', method: 'POST', path: '/api/account/sign-up', json: { email: 'nope' }, expect: all(400) },
+  { route: 'forgot password, invalid', method: 'POST', path: '/api/account/forgot-password', json: { email: 'nope' }, expect: all(400) },
+  { route: 'reset password, bad link', method: 'POST', path: '/api/account/reset-password', json: { token: 'x'.repeat(43), password: 'long enough password' }, expect: all(400) },
+  { route: 'confirm e-mail, bad link', method: 'POST', path: '/api/account/confirm-email', json: { token: 'y'.repeat(43) }, expect: all(400) },
+  { route: 'sign out', method: 'POST', path: '/api/account/sign-out', expect: all(200) },
+  { route: 'my account', method: 'GET', path: '/api/account', expect: signedInOnly(200) },
+  { route: 'rename me, invalid', method: 'PATCH', path: '/api/account', json: { name: '' }, expect: signedInOnly(400) },
+  { route: 'change password, too short', method: 'POST', path: '/api/account/password', json: { currentPassword: 'x', newPassword: 'short' }, expect: signedInOnly(400) },
+  { route: 'download my data', method: 'GET', path: '/api/account/export', expect: signedInOnly(200) },
+  { route: 'delete me, unconfirmed', method: 'DELETE', path: '/api/account', json: { confirmation: 'no' }, expect: signedInOnly(400) },
+  { route: 'list people', method: 'GET', path: '/api/admin/users', expect: adminOnly(200) },
+  { route: 'set a role', method: 'PATCH', path: (ids) => `/api/admin/users/${ids.member2}`, json: { role: 'member' }, expect: adminOnly(200) },
+  { route: 'set a role, unknown person', method: 'PATCH', path: '/api/admin/users/no-such-person', json: { role: 'member' }, expect: adminOnly(404) },
+];
+
+const jars = {} as Record<Who, Jar>;
+const ids = {} as Ids;
+
+beforeAll(async () => {
+  jars.visitor = newJar();
+  jars.member = await signedIn(demo.member);
+  jars.member2 = await signedIn(demo.member2);
+  jars.instructor = await signedIn(demo.instructor);
+  jars.admin = await signedIn(demo.admin);
+  ids.member2 = ((await (await api('/api/account', { jar: jars.member2 })).json()) as { id: string }).id;
+});
+
+const cases = matrix.flatMap((row) => everyone.map((who) => ({ ...row, who, status: row.expect[who] })));
+
+describe('authorisation matrix', () => {
+  it.each(cases)('$method $route as $who → $status', async ({ method, path, json, who, status }) => {
+    // A copy of the jar, so a row that signs out doesn't sign the next row out.
+    const jar = { cookies: new Map(jars[who].cookies) };
+    const response = await api(typeof path === 'function' ? path(ids) : path, { method, json, jar });
+    expect(response.status).toBe(status);
+  });
+});
+
+describe('no route answers 500 to a stranger', () => {
+  const writes = matrix.filter((row) => row.method !== 'GET');
+  const junk: [string, RequestInit][] = [
+    ['not JSON', { body: '{"half', headers: { 'content-type': 'application/json' } }],
+    ['an array', { body: '[1,2,3]', headers: { 'content-type': 'application/json' } }],
+    ['wrong types', { body: '{"email":5,"password":[],"token":{},"name":null,"role":7}', headers: { 'content-type': 'application/json' } }],
+    ['no body', {}],
+  ];
+  it.each(writes.flatMap((row) => junk.map(([label, init]) => ({ ...row, label, init }))))('$method $route with $label', async ({ method, path, init }) => {
+    const response = await api(typeof path === 'function' ? path(ids) : path, { ...init, method });
+    expect(response.status).toBeLessThan(500);
+  });
+});
