@@ -14,4 +14,4 @@ export { predictTint, ModelUnavailableError, type PlannedProcess, type Predictio
 export { planPair, type PairSuggestion } from './plan-pair';
 export { heatWarnings, anodizeWarnings, type HeatWarning } from './warnings';
 export * from './requests';
-export { ladderResponse, estimateResponse, planPairResponse } from './responses';
+export { ladderResponse, estimateResponse, planPairResponse, heatBasis } from './responses';

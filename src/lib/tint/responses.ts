@@ -5,7 +5,7 @@ import { thicknessCandidates } from './inverse';
 import { buildLadder } from './ladder';
 import type { TintModel } from './models';
 import { planPair, type PairSuggestion } from './plan-pair';
-import { roundLab } from './predict';
+import { MIN_LIBRARY_COUPONS, roundLab } from './predict';
 import { requestLab, type EstimateRequest, type LadderRequest, type PlanPairRequest } from './requests';
 
 export function ladderResponse(model: TintModel, request: LadderRequest) {
@@ -32,11 +32,19 @@ export function estimateResponse(model: TintModel, request: EstimateRequest) {
   };
 }
 
+/** Which basis the heat law of each layer rests on: the library fit when it has enough coupons. */
+export function heatBasis(alloy: string, fit: GrowthFit | null | undefined) {
+  const couponCount = fit?.heat?.couponCount ?? 0;
+  return couponCount >= MIN_LIBRARY_COUPONS
+    ? { alloy, basis: 'library' as const, couponCount }
+    : { alloy, basis: 'reference' as const, couponCount: 0 };
+}
+
 export function planPairResponse(
   models: readonly [TintModel, TintModel],
   request: PlanPairRequest,
   fits?: readonly [GrowthFit | null, GrowthFit | null],
-): { suggestions: PairSuggestion[] } {
+): { suggestions: PairSuggestion[]; bases: ReturnType<typeof heatBasis>[] } {
   const target = request.target ? ([hexToLab(request.target[0])!, hexToLab(request.target[1])!] as const) : undefined;
   return {
     suggestions: planPair(models, {
@@ -45,5 +53,6 @@ export function planPairResponse(
       holdMinutes: request.holdMinutes,
       fits,
     }),
+    bases: models.map((model, i) => heatBasis(model.alloy.slug, fits?.[i])),
   };
 }

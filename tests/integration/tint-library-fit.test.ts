@@ -1,0 +1,138 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { api, type Jar } from '../support/app';
+import { demo, signedIn } from '../support/auth';
+import { testDatabase } from '../support/database';
+import { deleteCoupons, insertSyntheticCoupon, type SyntheticCoupon } from '../fixtures/library-coupons';
+import { heatThicknessNm, type HeatGrowthLaw } from '../../src/lib/tint/growth';
+import { findTintModel } from '../../src/lib/tint/models';
+
+// The heat planner's library fit against the real database: coupons with swatches are inserted
+// directly, their colours made by our own tint model at thicknesses from a known growth law
+// (invented data), and the routes must fit them, count them by who may see them, and refit when
+// the library changes. Ti-3Al-2.5V (ti-grade-9) is used because no other test gives it swatches.
+const ALLOY = 'ti-grade-9';
+const prior = findTintModel(ALLOY)!.heat!;
+/** The known law: the prior's parabolic law, but 30 % thicker films (so the fit must move). */
+const knownLaw: HeatGrowthLaw = { ...prior.law, reference: { ...prior.law.reference, thicknessNm: prior.law.reference.thicknessNm * 1.3 } };
+
+const heat = (temperatureC: number, holdMinutes: number) => ({ temperatureC, holdMinutes, thicknessNm: heatThicknessNm(knownLaw, temperatureC, holdMinutes) });
+
+const library: SyntheticCoupon[] = [
+  { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'public', ...heat(480, 60), photos: 2 },
+  { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'public', ...heat(520, 30) },
+  { ownerEmail: demo.instructor, alloy: ALLOY, visibility: 'public', ...heat(580, 20), withoutMean: true },
+  { ownerEmail: demo.instructor, alloy: ALLOY, visibility: 'members', ...heat(600, 45) },
+  { ownerEmail: demo.member, alloy: ALLOY, visibility: 'private', ...heat(540, 90) },
+  // Not for the member: another member's private coupon.
+  { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'private', ...heat(560, 40) },
+  // Never in a heat fit: a heat under argon, and an anodized coupon (its own fit).
+  { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'public', ...heat(550, 60), atmosphere: 'argon' },
+  { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'public', process: 'anodize', volts: 20, thicknessNm: 48 },
+];
+
+const { db, pool } = testDatabase();
+const inserted: number[] = [];
+const jars: Partial<Record<keyof typeof demo, Jar>> = {};
+const plan = { alloy: ALLOY, process: 'heat', temperatureC: 560, holdMinutes: 60 };
+
+async function predict(jar?: Jar) {
+  const response = await api('/api/tint/predict', { jar, json: plan });
+  expect(response.status).toBe(200);
+  return response.json();
+}
+
+beforeAll(async () => {
+  for (const coupon of library) inserted.push(await insertSyntheticCoupon(db, coupon));
+  for (const who of ['member', 'member2', 'instructor', 'admin'] as const) jars[who] = await signedIn(demo[who]);
+});
+
+afterAll(async () => {
+  await deleteCoupons(db, inserted);
+  await pool.end();
+});
+
+describe('the heat planner with the library fit', () => {
+  it('a visitor gets the reference data', async () => {
+    const body = await predict();
+    expect(body.basis).toBe('reference');
+    expect(body.couponCount).toBe(0);
+  });
+
+  it('a member gets the fit to the coupons they may see: public, members-only and their own', async () => {
+    const body = await predict(jars.member);
+    expect(body.basis).toBe('library');
+    // 3 public + 1 members-only + their own private; not member2's private, the argon heat or the anodized coupon.
+    expect(body.couponCount).toBe(5);
+  });
+
+  it('counts each person’s own private coupons for them alone', async () => {
+    // member2: 2 public of their own + instructor's public and members-only + their own private.
+    await expect(predict(jars.member2)).resolves.toMatchObject({ basis: 'library', couponCount: 5 });
+    // The instructor has no private coupons here: public and members-only only.
+    await expect(predict(jars.instructor)).resolves.toMatchObject({ basis: 'library', couponCount: 4 });
+    // Admins may see every coupon (authorise.ts canSee), so their library holds both private ones.
+    await expect(predict(jars.admin)).resolves.toMatchObject({ basis: 'library', couponCount: 6 });
+  });
+
+  it('moves the band towards the law the coupons were made from', async () => {
+    const library = await predict(jars.member);
+    const reference = await predict();
+    const truth = heatThicknessNm(knownLaw, plan.temperatureC, plan.holdMinutes);
+    // The coupons were made from the known law with exact model colours, so the fit should land
+    // within 10 % of it (common practice for a recovery check), much closer than the prior.
+    expect(Math.abs(Math.log(library.thicknessNm.mid / truth))).toBeLessThan(0.1);
+    expect(Math.abs(Math.log(library.thicknessNm.mid / truth))).toBeLessThan(Math.abs(Math.log(reference.thicknessNm.mid / truth)));
+    expect(library.thicknessNm.high - library.thicknessNm.low).toBeLessThan(reference.thicknessNm.high - reference.thicknessNm.low);
+  });
+
+  it('refits when a coupon is added, and again when it is deleted', async () => {
+    const added = await insertSyntheticCoupon(db, { ownerEmail: demo.instructor, alloy: ALLOY, visibility: 'members', ...heat(500, 120) });
+    inserted.push(added);
+    await expect(predict(jars.member)).resolves.toMatchObject({ basis: 'library', couponCount: 6 });
+    await deleteCoupons(db, [added]);
+    await expect(predict(jars.member)).resolves.toMatchObject({ basis: 'library', couponCount: 5 });
+  });
+
+  it('refits when a coupon stops being shared', async () => {
+    const [members] = inserted.slice(3, 4);
+    await pool.query("UPDATE coupons SET visibility = 'private' WHERE id = ?", [members]);
+    try {
+      await expect(predict(jars.member)).resolves.toMatchObject({ couponCount: 4 });
+      await expect(predict(jars.instructor)).resolves.toMatchObject({ couponCount: 4 });
+    } finally {
+      await pool.query("UPDATE coupons SET visibility = 'members' WHERE id = ?", [members]);
+    }
+    await expect(predict(jars.member)).resolves.toMatchObject({ couponCount: 5 });
+  });
+});
+
+describe('the laminate pair planner with the library fit', () => {
+  const request = { alloys: [ALLOY, 'ti-grade-23'], holdMinutes: { min: 10, max: 60 } };
+
+  it('a visitor plans both layers on reference data', async () => {
+    const response = await api('/api/tint/plan-pair', { json: request });
+    expect(response.status).toBe(200);
+    const body = await response.json();
+    expect(body.bases).toEqual([
+      { alloy: ALLOY, basis: 'reference', couponCount: 0 },
+      { alloy: 'ti-grade-23', basis: 'reference', couponCount: 0 },
+    ]);
+    expect(body.suggestions.length).toBeGreaterThan(0);
+  });
+
+  it('a member plans the layer their library covers on its fit', async () => {
+    const response = await api('/api/tint/plan-pair', { jar: jars.member, json: request });
+    expect(response.status).toBe(200);
+    const body = await response.json();
+    expect(body.bases).toEqual([
+      { alloy: ALLOY, basis: 'library', couponCount: 5 },
+      { alloy: 'ti-grade-23', basis: 'reference', couponCount: 0 },
+    ]);
+  });
+
+  it('still refuses bad input from a signed-in member, naming the field', async () => {
+    const response = await api('/api/tint/plan-pair', { jar: jars.member, json: { alloys: [ALLOY, 'steel-304'] } });
+    expect(response.status).toBe(422);
+    await expect(response.json()).resolves.toMatchObject({ field: 'alloys.1' });
+  });
+});
