@@ -46,6 +46,8 @@ export const photos = mysqlTable(
     originalKey: varchar('original_key', { length: 512 }).notNull(),
     displayKey: varchar('display_key', { length: 512 }).notNull(),
     thumbKey: varchar('thumb_key', { length: 512 }).notNull(),
+    /** A lossless copy of the shrunk image colours are measured on, so a region edit needs no decode. */
+    analysisKey: varchar('analysis_key', { length: 512 }),
     contentType: varchar('content_type', { length: 64 }).notNull(),
     byteSize: bigint('byte_size', { mode: 'number' }).notNull(),
     width: int('width').notNull(),

@@ -1,0 +1,1 @@
+ALTER TABLE `photos` ADD `analysis_key` varchar(512);
