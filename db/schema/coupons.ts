@@ -12,15 +12,10 @@ import {
 import { timestamps } from './columns';
 import { users } from './users';
 import { alloys } from './alloys';
+import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from '../../src/lib/coupons';
 
-export const visibilities = ['private', 'members', 'public'] as const;
-export const surfacePreparations = ['ground', 'blasted', 'etched', 'polished', 'as-forged', 'other'] as const;
-export const processes = ['oven', 'forge', 'torch', 'induction', 'anodize'] as const;
-export const temperatureMethods = ['thermocouple', 'pyrometer', 'oven-setpoint', 'estimated'] as const;
-export const atmospheres = ['air', 'argon', 'other'] as const;
-export const coolings = ['still-air', 'forced-air', 'water-quench', 'oil-quench', 'in-furnace', 'in-can', 'other'] as const;
-
-export type Visibility = (typeof visibilities)[number];
+export { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities };
+export type { Visibility } from '../../src/lib/coupons';
 
 /**
  * One test coupon and its heat record. Temperatures in °C, times in seconds, flow in L/min.

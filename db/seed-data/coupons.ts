@@ -1,4 +1,5 @@
 import type { coupons } from '../schema';
+import { findAlloy } from '../../src/lib/alloys';
 import { seededRandom } from './random';
 
 type NewCoupon = Omit<typeof coupons.$inferInsert, 'ownerId' | 'layerKey'>;
@@ -65,7 +66,7 @@ export function demoCoupons(ownerEmails: string[], count = 200): DemoCoupon[] {
       ownerEmail,
       layers,
       coupon: {
-        title: `${recipe.label} — ${layers.join(' / ')} — ${heat}`,
+        title: `${recipe.label}: ${layers.map((slug) => findAlloy(slug)?.name ?? slug).join(' / ')}, ${heat}`,
         surfacePrep,
         surfaceGrit: surfacePrep === 'ground' ? random.pick(grits) : null,
         process,

@@ -1,0 +1,104 @@
+import { z } from 'zod';
+import { alloySlugs } from './alloys';
+
+/** The heat record of a coupon: vocabularies, labels, and the one schema forms and routes share. */
+
+export const visibilities = ['private', 'members', 'public'] as const;
+export const surfacePreparations = ['ground', 'blasted', 'etched', 'polished', 'as-forged', 'other'] as const;
+export const processes = ['oven', 'forge', 'torch', 'induction', 'anodize'] as const;
+export const temperatureMethods = ['thermocouple', 'pyrometer', 'oven-setpoint', 'estimated'] as const;
+export const atmospheres = ['air', 'argon', 'other'] as const;
+export const coolings = ['still-air', 'forced-air', 'water-quench', 'oil-quench', 'in-furnace', 'in-can', 'other'] as const;
+
+export type Visibility = (typeof visibilities)[number];
+export type Process = (typeof processes)[number];
+
+export const labels = {
+  visibility: { private: 'Only me', members: 'Members', public: 'Everyone' },
+  surfacePrep: { ground: 'Ground (grit)', blasted: 'Blasted', etched: 'Etched', polished: 'Polished', 'as-forged': 'As forged', other: 'Other' },
+  process: { oven: 'Oven or kiln', forge: 'Forge', torch: 'Torch', induction: 'Induction', anodize: 'Anodizing' },
+  temperatureMethod: { thermocouple: 'Thermocouple', pyrometer: 'Pyrometer', 'oven-setpoint': 'Oven setpoint', estimated: 'Estimated' },
+  atmosphere: { air: 'Air', argon: 'Argon', other: 'Other' },
+  cooling: {
+    'still-air': 'Still air',
+    'forced-air': 'Forced air',
+    'water-quench': 'Water quench',
+    'oil-quench': 'Oil quench',
+    'in-furnace': 'In the furnace',
+    'in-can': 'In the can',
+    other: 'Other',
+  },
+} as const;
+
+export const MAX_LAYERS = 8;
+export const MAX_TEMPERATURE_C = 1600;
+
+const optionalNumber = (schema: z.ZodNumber) => schema.nullable().optional().transform((value) => value ?? null);
+const optionalText = (max: number, message: string) =>
+  z
+    .string()
+    .trim()
+    .max(max, { error: message })
+    .nullable()
+    .optional()
+    .transform((value) => (value ? value : null));
+
+/** A coupon as sent by the form and the API (°C, seconds, L/min). */
+export const couponInputSchema = z
+  .object({
+    title: z.string({ error: 'Give the coupon a title.' }).trim().min(1, { error: 'Give the coupon a title.' }).max(160, { error: 'Use at most 160 characters.' }),
+    layers: z
+      .array(z.enum(alloySlugs as [string, ...string[]], { error: 'Choose an alloy from the list.' }), { error: 'Add at least one layer.' })
+      .min(1, { error: 'Add at least one layer.' })
+      .max(MAX_LAYERS, { error: `A coupon has at most ${MAX_LAYERS} layers.` }),
+    surfacePrep: z.enum(surfacePreparations, { error: 'Choose how the surface was prepared.' }),
+    surfaceGrit: optionalNumber(z.number({ error: 'Grit is a whole number.' }).int({ error: 'Grit is a whole number.' }).min(24, { error: 'Grit is between 24 and 10 000.' }).max(10_000, { error: 'Grit is between 24 and 10 000.' })),
+    process: z.enum(processes, { error: 'Choose a process.' }),
+    temperatureC: optionalNumber(z.number({ error: 'Temperature is a number.' }).min(0, { error: 'Temperature is between 0 and 1600 °C.' }).max(MAX_TEMPERATURE_C, { error: 'Temperature is between 0 and 1600 °C.' })),
+    temperatureMethod: z.enum(temperatureMethods, { error: 'Choose how the temperature was measured.' }).nullable().optional().transform((value) => value ?? null),
+    holdSeconds: optionalNumber(z.number({ error: 'Hold time is a number.' }).int({ error: 'Hold time is whole seconds.' }).min(0, { error: 'Hold time cannot be negative.' }).max(7 * 24 * 3600, { error: 'Hold time is at most a week.' })),
+    volts: optionalNumber(z.number({ error: 'Voltage is a number.' }).min(1, { error: 'Voltage is between 1 and 300 V.' }).max(300, { error: 'Voltage is between 1 and 300 V.' })),
+    atmosphere: z.enum(atmospheres, { error: 'Choose the atmosphere.' }),
+    argonFlowLpm: optionalNumber(z.number({ error: 'Flow is a number.' }).min(0, { error: 'Flow is between 0 and 100 L/min.' }).max(100, { error: 'Flow is between 0 and 100 L/min.' })),
+    atmosphereNote: optionalText(255, 'Use at most 255 characters.'),
+    cooling: z.enum(coolings, { error: 'Choose how it cooled.' }).nullable().optional().transform((value) => value ?? null),
+    notes: optionalText(5000, 'Use at most 5000 characters.'),
+    visibility: z.enum(visibilities, { error: 'Choose who can see the coupon.' }),
+  })
+  .superRefine((coupon, context) => {
+    const need = (path: string, message: string) => context.addIssue({ code: 'custom', path: [path], message });
+    if (coupon.process === 'anodize') {
+      if (coupon.volts === null) need('volts', 'Give the anodizing voltage.');
+    } else {
+      if (coupon.temperatureC === null) need('temperatureC', 'Give the temperature.');
+      if (coupon.temperatureMethod === null) need('temperatureMethod', 'Say how the temperature was measured.');
+      if (coupon.holdSeconds === null) need('holdSeconds', 'Give the hold time.');
+    }
+    if (coupon.atmosphere === 'argon' && coupon.argonFlowLpm === null) need('argonFlowLpm', 'Give the argon flow in L/min.');
+  });
+
+export type CouponInput = z.input<typeof couponInputSchema>;
+export type Coupon = z.output<typeof couponInputSchema>;
+
+/** NIST SP 811, appendix B: t/°C = (t/°F − 32) / 1.8. */
+export const fahrenheitToCelsius = (fahrenheit: number) => ((fahrenheit - 32) * 5) / 9;
+export const celsiusToFahrenheit = (celsius: number) => (celsius * 9) / 5 + 32;
+
+/** "540 °C · 30 min" or "25 V": the heat in a few words. */
+export function describeHeat(coupon: Pick<Coupon, 'process' | 'temperatureC' | 'holdSeconds' | 'volts'>): string {
+  if (coupon.process === 'anodize') return coupon.volts === null ? 'anodized' : `${formatNumber(coupon.volts)} V`;
+  const parts: string[] = [];
+  if (coupon.temperatureC !== null) parts.push(`${formatNumber(coupon.temperatureC)} °C`);
+  if (coupon.holdSeconds !== null) parts.push(formatDuration(coupon.holdSeconds));
+  return parts.join(' · ');
+}
+
+export function formatDuration(seconds: number): string {
+  if (seconds < 60) return `${seconds} s`;
+  if (seconds < 3600) return `${formatNumber(seconds / 60)} min`;
+  const hours = Math.floor(seconds / 3600);
+  const minutes = Math.round((seconds % 3600) / 60);
+  return minutes ? `${hours} h ${minutes} min` : `${hours} h`;
+}
+
+export const formatNumber = (value: number) => (Number.isInteger(value) ? String(value) : value.toFixed(1));

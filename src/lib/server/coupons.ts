@@ -1,0 +1,168 @@
+import { and, asc, count, desc, eq, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { alloys, couponLayers, coupons, photos, users } from '../../../db/schema';
+import { layerKeyOf } from '../alloys';
+import type { Coupon, Visibility } from '../coupons';
+import type { SessionUser } from './authorise';
+import { db } from './db';
+import { deleteObjects } from './storage';
+
+type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
+
+export interface CouponLayer {
+  id: number;
+  position: number;
+  alloy: string;
+  alloyName: string;
+}
+
+export type CouponRecord = Coupon & {
+  id: number;
+  ownerId: string;
+  ownerName: string | null;
+  layerKey: string;
+  createdAt: Date;
+  updatedAt: Date;
+  layerDetails: CouponLayer[];
+};
+
+/** The visibility rules, in SQL: everyone sees public; members also members-only; owners their own; admins all. */
+export function visibleTo(viewer: Viewer): SQL | undefined {
+  if (viewer?.role === 'admin') return undefined;
+  if (!viewer) return eq(coupons.visibility, 'public');
+  return or(inArray(coupons.visibility, ['public', 'members']), eq(coupons.ownerId, viewer.id));
+}
+
+const couponColumns = {
+  id: coupons.id,
+  ownerId: coupons.ownerId,
+  ownerName: users.name,
+  title: coupons.title,
+  layerKey: coupons.layerKey,
+  surfacePrep: coupons.surfacePrep,
+  surfaceGrit: coupons.surfaceGrit,
+  process: coupons.process,
+  temperatureC: coupons.temperatureC,
+  temperatureMethod: coupons.temperatureMethod,
+  holdSeconds: coupons.holdSeconds,
+  volts: coupons.volts,
+  atmosphere: coupons.atmosphere,
+  argonFlowLpm: coupons.argonFlowLpm,
+  atmosphereNote: coupons.atmosphereNote,
+  cooling: coupons.cooling,
+  notes: coupons.notes,
+  visibility: coupons.visibility,
+  createdAt: coupons.createdAt,
+  updatedAt: coupons.updatedAt,
+};
+
+async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>> {
+  const byCoupon = new Map<number, CouponLayer[]>();
+  if (couponIds.length === 0) return byCoupon;
+  const rows = await db()
+    .select({ couponId: couponLayers.couponId, id: couponLayers.id, position: couponLayers.position, alloy: alloys.slug, alloyName: alloys.name })
+    .from(couponLayers)
+    .innerJoin(alloys, eq(alloys.id, couponLayers.alloyId))
+    .where(inArray(couponLayers.couponId, couponIds))
+    .orderBy(asc(couponLayers.couponId), asc(couponLayers.position));
+  for (const { couponId, ...layer } of rows) byCoupon.set(couponId, [...(byCoupon.get(couponId) ?? []), layer]);
+  return byCoupon;
+}
+
+function withLayers(row: Omit<CouponRecord, 'layers' | 'layerDetails'>, layers: CouponLayer[] = []): CouponRecord {
+  return { ...row, layers: layers.map((layer) => layer.alloy), layerDetails: layers };
+}
+
+/** One coupon with its layers, whoever owns it (callers check access). */
+export async function findCoupon(id: number): Promise<CouponRecord | undefined> {
+  const [row] = await db().select(couponColumns).from(coupons).innerJoin(users, eq(users.id, coupons.ownerId)).where(eq(coupons.id, id));
+  if (!row) return undefined;
+  return withLayers(row, (await layersOf([id])).get(id));
+}
+
+export interface CouponListOptions {
+  ownerId?: string;
+  limit: number;
+  offset: number;
+}
+
+/** Coupons the viewer may see, newest first, with the total for paging. */
+export async function listCoupons(viewer: Viewer, options: CouponListOptions): Promise<{ coupons: CouponRecord[]; total: number }> {
+  const where = and(visibleTo(viewer), options.ownerId ? eq(coupons.ownerId, options.ownerId) : undefined);
+  const rows = await db()
+    .select(couponColumns)
+    .from(coupons)
+    .innerJoin(users, eq(users.id, coupons.ownerId))
+    .where(where)
+    .orderBy(desc(coupons.createdAt), desc(coupons.id))
+    .limit(options.limit)
+    .offset(options.offset);
+  const [{ total }] = await db().select({ total: count() }).from(coupons).where(where);
+  const layers = await layersOf(rows.map((row) => row.id));
+  return { coupons: rows.map((row) => withLayers(row, layers.get(row.id))), total };
+}
+
+async function alloyIds(slugs: string[]): Promise<Map<string, number>> {
+  const rows = await db().select({ id: alloys.id, slug: alloys.slug }).from(alloys).where(inArray(alloys.slug, slugs));
+  return new Map(rows.map((row) => [row.slug, row.id]));
+}
+
+const recordOf = ({ layers, ...coupon }: Coupon) => ({ ...coupon, layerKey: layerKeyOf(layers) });
+
+export async function createCoupon(ownerId: string, input: Coupon): Promise<number> {
+  const ids = await alloyIds(input.layers);
+  return db().transaction(async (tx) => {
+    const [{ id }] = await tx.insert(coupons).values({ ...recordOf(input), ownerId }).$returningId();
+    await tx.insert(couponLayers).values(input.layers.map((slug, position) => ({ couponId: id, position, alloyId: ids.get(slug)! })));
+    return id;
+  });
+}
+
+/**
+ * Saves an edited coupon. Layers are changed in place by position, so a layer keeps its regions
+ * and swatches when only its alloy changes; removed positions take theirs with them.
+ */
+export async function updateCoupon(id: number, input: Coupon): Promise<void> {
+  const ids = await alloyIds(input.layers);
+  await db().transaction(async (tx) => {
+    await tx.update(coupons).set(recordOf(input)).where(eq(coupons.id, id));
+    const existing = await tx.select({ id: couponLayers.id, position: couponLayers.position }).from(couponLayers).where(eq(couponLayers.couponId, id));
+    for (const [position, slug] of input.layers.entries()) {
+      const layer = existing.find((row) => row.position === position);
+      if (layer) await tx.update(couponLayers).set({ alloyId: ids.get(slug)! }).where(eq(couponLayers.id, layer.id));
+      else await tx.insert(couponLayers).values({ couponId: id, position, alloyId: ids.get(slug)! });
+    }
+    const removed = existing.filter((row) => row.position >= input.layers.length).map((row) => row.id);
+    if (removed.length) await tx.delete(couponLayers).where(inArray(couponLayers.id, removed));
+  });
+}
+
+export async function setVisibility(id: number, visibility: Visibility): Promise<void> {
+  await db().update(coupons).set({ visibility }).where(eq(coupons.id, id));
+}
+
+/** Deletes a coupon (photos, regions and swatches cascade) and then its files in storage. */
+export async function deleteCoupon(id: number): Promise<void> {
+  const files = await db().select({ originalKey: photos.originalKey, displayKey: photos.displayKey, thumbKey: photos.thumbKey }).from(photos).where(eq(photos.couponId, id));
+  await db().delete(coupons).where(eq(coupons.id, id));
+  await deleteObjects(files.flatMap((file) => [file.originalKey, file.displayKey, file.thumbKey]));
+}
+
+export async function photoCounts(couponIds: number[]): Promise<Map<number, number>> {
+  if (couponIds.length === 0) return new Map();
+  const rows = await db()
+    .select({ couponId: photos.couponId, photos: sql<number>`count(*)` })
+    .from(photos)
+    .where(inArray(photos.couponId, couponIds))
+    .groupBy(photos.couponId);
+  return new Map(rows.map((row) => [row.couponId, Number(row.photos)]));
+}
+
+/** A coupon as the API answers it: no owner id, but whether the viewer may change it. */
+export function couponView(coupon: CouponRecord, viewer: Viewer) {
+  const { ownerId, layerDetails, ...rest } = coupon;
+  return {
+    ...rest,
+    layers: layerDetails.map(({ position, alloy, alloyName }) => ({ position, alloy, alloyName })),
+    canEdit: Boolean(viewer && (viewer.role === 'admin' || viewer.id === ownerId)),
+  };
+}
