@@ -1,4 +1,7 @@
-import type { z } from 'zod';
+import { z } from 'zod';
+
+/** Any zod schema, from the full build or from zod/mini. */
+type Schema = z.core.$ZodType;
 
 /** A JSON response with the given status. */
 export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
@@ -16,7 +19,7 @@ export function problem(status: number, error: string, field?: string): Response
 type Parsed<T> = { ok: true; data: T } | { ok: false; response: Response };
 
 /** Names the first failing field of a zod error, e.g. "temperatureC: Too big". */
-export function describeZodError(error: z.ZodError): { message: string; field?: string } {
+export function describeZodError(error: z.core.$ZodError): { message: string; field?: string } {
   const issue = error.issues[0];
   if (!issue) return { message: 'Invalid input' };
   const field = issue.path.join('.');
@@ -24,7 +27,7 @@ export function describeZodError(error: z.ZodError): { message: string; field?: 
 }
 
 /** Reads a JSON body and validates it; a malformed body or a failed check is a 400 naming the field. */
-export async function parseJson<S extends z.ZodType>(request: Request, schema: S): Promise<Parsed<z.infer<S>>> {
+export async function parseJson<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
   let raw: unknown;
   try {
     raw = await request.json();
@@ -35,8 +38,8 @@ export async function parseJson<S extends z.ZodType>(request: Request, schema: S
 }
 
 /** Validates an already-read value (query parameters, route parameters). */
-export function parseValue<S extends z.ZodType>(raw: unknown, schema: S): Parsed<z.infer<S>> {
-  const result = schema.safeParse(raw);
+export function parseValue<S extends Schema>(raw: unknown, schema: S): Parsed<z.output<S>> {
+  const result = z.safeParse(schema, raw);
   if (result.success) return { ok: true, data: result.data };
   const { message, field } = describeZodError(result.error);
   return { ok: false, response: problem(400, message, field) };
@@ -72,7 +75,7 @@ export async function readBody(request: Request): Promise<unknown> {
 }
 
 /** Like parseJson, for routes that take either JSON or a plain form post. */
-export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<Parsed<z.infer<S>>> {
+export async function parseBody<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
   let raw: unknown;
   try {
     raw = await readBody(request);
