@@ -1,12 +1,14 @@
 // `npm run stop`: stops everything `npm start` started, by pid file.
-import { rmSync } from 'node:fs';
 import path from 'node:path';
 import { loadProfile } from './services/profile.mjs';
 import { stopServices } from './services/index.mjs';
-import { stopByPidFile } from './services/processes.mjs';
+import { readPid, stopByPidFile } from './services/processes.mjs';
 
 const profile = loadProfile(process.argv.includes('--test') ? 'test' : 'dev');
-await stopByPidFile(path.join(profile.runDir, 'supervisor.pid'), 20_000);
-const stopped = await stopServices(profile);
-rmSync(path.join(profile.runDir, 'supervisor.pid'), { force: true });
-console.log(stopped.length ? `Stopped ${stopped.join(', ')}.` : 'Nothing was running.');
+const supervisorFile = path.join(profile.runDir, 'supervisor.pid');
+const supervisor = readPid(supervisorFile);
+// The supervisor stops its services itself when it gets TERM; anything left is stopped here.
+await stopByPidFile(supervisorFile, 60_000);
+const leftovers = await stopServices(profile);
+if (supervisor) console.log(`Stopped Oxbloom (pid ${supervisor})${leftovers.length ? ` and ${leftovers.join(', ')}` : ''}.`);
+else console.log(leftovers.length ? `Stopped ${leftovers.join(', ')}.` : 'Nothing was running.');
