@@ -63,6 +63,6 @@ async function main() {
 }
 
 main().catch((error) => {
-  console.error(`[oxbloom] seeding failed: ${error.message}`);
+  console.error(String(error.message).split('\n')[0]);
   process.exit(1);
 });

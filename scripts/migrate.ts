@@ -1,4 +1,5 @@
-// Applies the committed Drizzle migrations in db/migrations to DATABASE_URL.
+// Applies the committed Drizzle migrations in db/migrations to DATABASE_URL. On failure it prints
+// one line naming the database's own complaint and exits 1.
 import { migrate } from 'drizzle-orm/mysql2/migrator';
 import { createDatabase } from '../db/client';
 
@@ -7,12 +8,18 @@ if (!url) {
   console.error('DATABASE_URL is not set.');
   process.exit(1);
 }
+
+function reason(error: unknown): string {
+  const cause = (error as { cause?: { message?: string } }).cause?.message;
+  return (cause ?? (error as Error).message ?? String(error)).split('\n')[0];
+}
+
 const { db, pool } = createDatabase(url, 1);
 try {
   await migrate(db, { migrationsFolder: new URL('../db/migrations', import.meta.url).pathname });
   console.log('[oxbloom] database schema is up to date.');
 } catch (error) {
-  console.error(`[oxbloom] migration failed: ${(error as Error).message}`);
+  console.error(`${reason(error)} — fix the migration in db/migrations or the database, then start again.`);
   process.exitCode = 1;
 } finally {
   await pool.end();

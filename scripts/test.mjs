@@ -3,11 +3,11 @@
 // fake and the mail fake, migrates, seeds the demo, builds and starts the app, runs vitest, stops.
 // Extra arguments go to vitest, e.g. `npm test -- tests/unit`.
 import { spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { ensureDebianPackages, ensureNodeModules } from './services/system.mjs';
 import { loadProfile, appEnvironment, root } from './services/profile.mjs';
-import { SetupError } from './services/processes.mjs';
+import { SetupError, isAlive, readPid } from './services/processes.mjs';
 
 const started = Date.now();
 const vitestArgs = process.argv.slice(2);
@@ -33,6 +33,15 @@ async function main() {
   const { startServices, startApp, stopServices, authSecret, logFile } = await import('./services/index.mjs');
   const { migrate, seed, build } = await import('./services/tasks.mjs');
   const profile = loadProfile('test');
+
+  // One test run at a time: a second one would stop the first one's services.
+  const runnerFile = path.join(profile.runDir, 'runner.pid');
+  const other = readPid(runnerFile);
+  if (other && other !== process.pid && isAlive(other)) {
+    throw new SetupError(`Another npm test is running (pid ${other}) on the test ports; wait for it to finish.`);
+  }
+  mkdirSync(profile.runDir, { recursive: true });
+  writeFileSync(runnerFile, String(process.pid));
 
   await stopServices(profile);
   rmSync(profile.mailDir, { recursive: true, force: true });
@@ -66,6 +75,7 @@ async function main() {
     summarise(reportFile);
   } finally {
     await stopServices(profile);
+    rmSync(runnerFile, { force: true });
     step(`done, services stopped`);
   }
   return status;

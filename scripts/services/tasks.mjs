@@ -13,8 +13,16 @@ function runNode(args, env, what) {
   if (result.status !== 0) throw new SetupError(`${what} failed (exit ${result.status}); see the lines above.`);
 }
 
-export const migrate = (env) => runNode([tsx, 'scripts/migrate.ts'], env, 'Applying the database migrations');
-export const seed = (env) => runNode([tsx, 'db/seed.ts'], env, 'Seeding the database');
+/** Runs a step whose failure is told in its last line of stderr; that line becomes ours. */
+function runStep(args, env, what) {
+  const result = spawnSync(process.execPath, args, { stdio: ['ignore', 'inherit', 'pipe'], cwd: root, env: { ...process.env, ...env }, encoding: 'utf8' });
+  const lines = (result.stderr ?? '').trim().split('\n').filter(Boolean);
+  if (result.status !== 0) throw new SetupError(`${what} failed: ${lines.at(-1) ?? `exit ${result.status}`}`);
+  for (const line of lines) process.stderr.write(`${line}\n`);
+}
+
+export const migrate = (env) => runStep([tsx, 'scripts/migrate.ts'], env, 'Applying the database migrations');
+export const seed = (env) => runStep([tsx, 'db/seed.ts'], env, 'Seeding the database');
 
 function newestChange(entry) {
   if (!existsSync(entry)) return 0;
