@@ -26,8 +26,8 @@ function readPort(environment, variable, fallback) {
  * @param {Record<string, string | undefined>} environment where ports and OXBLOOM_DATA_ROOT are read
  */
 export function loadProfile(name, environment = process.env) {
-  const ports = {};
-  const portVariables = {};
+  const ports = /** @type {Record<"app" | "db" | "s3" | "smtp" | "inbox", number>} */ ({});
+  const portVariables = /** @type {Record<"app" | "db" | "s3" | "smtp" | "inbox", string>} */ ({});
   for (const [service, [variable, fallback]] of Object.entries(defaults[name])) {
     ports[service] = readPort(environment, variable, fallback);
     portVariables[service] = variable;
