@@ -5,9 +5,11 @@ export { colourFromXyz, colourFromLab, hexToLab, type Lab, type TintColour } fro
 export { deltaE2000 } from './delta-e';
 export { illuminants, type Illuminant } from './illuminants';
 export { filmSystems, type FilmSystemId } from './film-systems';
+export { familyLabels, ladderAlloyOptions, plannerAlloyOptions, type AlloyOption, type AlloyOptionGroup } from './alloy-options';
+export { ladderView, type LadderView, type LadderBand, type LadderTick, type LadderTableStep } from './ladder-view';
 export { buildLadder, colourAt, tintNameAt, MAX_THICKNESS_NM, type LadderStep } from './ladder';
 export { tintNames, type TintName } from './tint-names';
-export { heatThicknessNm, anodizeThicknessNm, fahrenheitToCelsius, type HeatGrowthLaw } from './growth';
+export { heatThicknessNm, anodizeThicknessNm, fahrenheitToCelsius, celsiusToFahrenheit, type HeatGrowthLaw } from './growth';
 export { thicknessCandidates, type ThicknessCandidate } from './inverse';
 export { fitGrowth, FitCache, type CouponObservation, type GrowthFit } from './fit';
 export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';
