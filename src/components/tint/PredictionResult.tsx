@@ -1,0 +1,62 @@
+import type { Prediction } from '../../lib/tint/predict';
+import { BasisNote } from './BasisNote';
+import { ColourChip } from './ColourChip';
+
+interface Props {
+  prediction: Prediction;
+  planned: string;
+  signedIn: boolean;
+}
+
+/** The predicted band of a planned heat: its ends and middle, the colours across it, the basis and the warnings. */
+export function PredictionResult({ prediction, planned, signedIn }: Props) {
+  const { band, colour, thicknessNm, warnings } = prediction;
+  const first = band[0];
+  const last = band[band.length - 1];
+  const ends = [
+    { key: 'low', title: 'Thinner end', hex: first.hex, name: first.name, nm: thicknessNm.low },
+    { key: 'mid', title: 'Most likely', hex: colour.hex, name: colour.name, nm: thicknessNm.mid },
+    { key: 'high', title: 'Thicker end', hex: last.hex, name: last.name, nm: thicknessNm.high },
+  ];
+  return (
+    <section className="card grid gap-4" aria-labelledby="prediction-heading" data-testid="prediction">
+      <div>
+        <p className="text-sm text-ash-600">{planned}</p>
+        <h2 id="prediction-heading" className="text-xl">
+          Predicted tint: <span data-testid="predicted-name">{colour.name}</span>
+        </h2>
+      </div>
+
+      <div className="flex h-12 overflow-hidden rounded-md shadow-[inset_0_0_0_1px_rgb(0_0_0/0.15)]" role="img" aria-label={`Band of tints from ${first.name} to ${last.name}`}>
+        {band.map((step) => (
+          <span key={step.thicknessNm} className="flex-1" style={{ background: step.hex }} title={`${step.thicknessNm} nm, ${step.name}`} />
+        ))}
+      </div>
+
+      <ul className="grid gap-2 sm:grid-cols-3" aria-label="The band's ends and middle">
+        {ends.map((end) => (
+          <li key={end.key} className="grid gap-1">
+            <span className="text-xs font-semibold tracking-wide text-ash-600 uppercase">{end.title}</span>
+            <ColourChip hex={end.hex} label={end.name} detail={`${end.nm} nm · ${end.hex}`} large={end.key === 'mid'} />
+          </li>
+        ))}
+      </ul>
+
+      <BasisNote basis={prediction.basis} couponCount={prediction.couponCount} signedIn={signedIn} />
+
+      {warnings.length > 0 && (
+        <div className="grid gap-2" data-testid="warnings">
+          <h3 className="text-base">Warnings for this heat</h3>
+          <ul className="grid gap-2">
+            {warnings.map((warning) => (
+              <li key={warning.code} className="alert alert-caution" data-warning={warning.code}>
+                <p>{warning.message}</p>
+                <p className="mt-1 text-xs">Source: {warning.source}</p>
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+    </section>
+  );
+}
