@@ -5,6 +5,7 @@ import { clientAddress } from './lib/server/client-address';
 import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttempts } from './lib/server/http';
+import { startUploadSweeper } from './lib/server/uploads';
 
 const SIGN_IN_ROUTES = ['/api/auth/callback/credentials', '/api/auth/signin/nodemailer'];
 
@@ -61,4 +62,10 @@ const secureHeaders = defineMiddleware(async (_context, next) => {
   return response;
 });
 
-export const onRequest = sequence(secureHeaders, checkOrigin, limitSignIn, loadSession);
+/** Starts this process's timer for the sweep of stale uploads (once; see lib/server/uploads.ts). */
+const startTimers = defineMiddleware((_context, next) => {
+  startUploadSweeper();
+  return next();
+});
+
+export const onRequest = sequence(startTimers, secureHeaders, checkOrigin, limitSignIn, loadSession);

@@ -1,4 +1,5 @@
 import { createRequire } from 'node:module';
+import { Worker } from 'node:worker_threads';
 
 /**
  * HEIC photos (HEVC-coded HEIF, what many phones save): sharp's prebuilt binaries read their
@@ -26,28 +27,83 @@ export interface DecodedHeic {
   data: Uint8ClampedArray;
 }
 
-interface HeicImage {
-  width: number;
-  height: number;
-  decode(): Promise<DecodedHeic>;
+/**
+ * heic-decode runs libheif in WebAssembly on the calling thread: about a second for a 12 MP photo.
+ * So decoding happens in one worker thread per process, and the event loop keeps serving meanwhile.
+ * The worker is plain CommonJS given as source (nothing for the bundler to miss) and loads
+ * heic-decode from the path resolved here.
+ */
+const WORKER_SOURCE = `
+const { parentPort, workerData } = require('node:worker_threads');
+const { all } = require(workerData.decoderPath);
+parentPort.on('message', async ({ id, buffer, maxPixels }) => {
+  try {
+    const images = await all({ buffer });
+    try {
+      const primary = images[0];
+      if (!primary) throw new Error('no image in the file');
+      if (primary.width * primary.height > maxPixels) return parentPort.postMessage({ id, tooManyPixels: true });
+      const { width, height, data } = await primary.decode();
+      parentPort.postMessage({ id, width, height, data }, [data.buffer]);
+    } finally {
+      images.dispose();
+    }
+  } catch (error) {
+    parentPort.postMessage({ id, error: String((error && error.message) || error) });
+  }
+});
+`;
+
+interface Reply {
+  id: number;
+  width?: number;
+  height?: number;
+  data?: Uint8ClampedArray;
+  tooManyPixels?: boolean;
+  error?: string;
 }
-type DecodeAll = (input: { buffer: Uint8Array }) => Promise<HeicImage[] & { dispose(): void }>;
 
 const require = createRequire(import.meta.url);
-let decodeAll: DecodeAll | undefined;
+const pending = new Map<number, { resolve: (image: DecodedHeic) => void; reject: (error: Error) => void }>();
+let worker: Worker | undefined;
+let nextId = 1;
+
+function decoderThread(): Worker {
+  if (worker) return worker;
+  const thread = new Worker(WORKER_SOURCE, { eval: true, workerData: { decoderPath: require.resolve('heic-decode') } });
+  thread.unref();
+  thread.on('message', (reply: Reply) => {
+    const waiting = pending.get(reply.id);
+    if (!waiting) return;
+    pending.delete(reply.id);
+    if (reply.tooManyPixels) waiting.reject(new RangeError('too many pixels'));
+    else if (reply.error !== undefined || !reply.data) waiting.reject(new Error(reply.error ?? 'no pixels'));
+    else waiting.resolve({ width: reply.width!, height: reply.height!, data: reply.data });
+  });
+  // A crashed worker (e.g. out of memory) fails what it held; the next photo starts a new one.
+  const fail = (error: Error) => {
+    if (worker === thread) worker = undefined;
+    for (const waiting of pending.values()) waiting.reject(error);
+    pending.clear();
+  };
+  thread.on('error', fail);
+  thread.on('exit', (code) => fail(new Error(`The HEIC decoder stopped (exit ${code}).`)));
+  worker = thread;
+  return thread;
+}
 
 /**
- * Decodes the primary image, refusing it before decoding when it has more than `maxPixels`.
- * Throws RangeError for too many pixels, and the decoder's own error for damaged files.
+ * Decodes the primary image in the decoder thread, refusing it before decoding when it has more
+ * than `maxPixels`. Throws RangeError for too many pixels, and the decoder's own error for damaged files.
  */
-export async function decodeHeic(buffer: Uint8Array, maxPixels: number): Promise<DecodedHeic> {
-  decodeAll ??= (require('heic-decode') as { all: DecodeAll }).all;
-  const images = await decodeAll({ buffer });
-  try {
-    const primary = images[0];
-    if (primary.width * primary.height > maxPixels) throw new RangeError('too many pixels');
-    return await primary.decode();
-  } finally {
-    images.dispose();
-  }
+export function decodeHeic(buffer: Uint8Array, maxPixels: number): Promise<DecodedHeic> {
+  const thread = decoderThread();
+  const id = nextId++;
+  return new Promise<DecodedHeic>((resolve, reject) => {
+    pending.set(id, { resolve, reject });
+    thread.ref();
+    thread.postMessage({ id, buffer, maxPixels });
+  }).finally(() => {
+    if (pending.size === 0) thread.unref();
+  });
 }

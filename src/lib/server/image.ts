@@ -241,6 +241,12 @@ export interface DerivedImage {
   contentType: 'image/webp';
 }
 
+/** A full-size copy of an original that carried a GPS position, upright and without any metadata. */
+export interface PositionFreeOriginal {
+  data: Buffer;
+  contentType: 'image/jpeg' | 'image/png' | 'image/webp';
+}
+
 export interface ProcessedPhoto {
   format: OpenedImage['format'];
   /** Upright full-size dimensions; regions are drawn in these pixels. */
@@ -253,6 +259,8 @@ export interface ProcessedPhoto {
   thumbnail: DerivedImage;
   /** Pass to analyseDecoded() with the regions; gives the same numbers as analysePhoto(). */
   analysisImage: AnalysisImage;
+  /** Null when the original carries no GPS position and may be kept as it is; else the copy to keep instead. */
+  positionFree: PositionFreeOriginal | null;
 }
 
 async function toWebp(pixels: PixelImage, longSide: number, quality: number): Promise<DerivedImage> {
@@ -273,13 +281,48 @@ async function toWebp(pixels: PixelImage, longSide: number, quality: number): Pr
 export async function processPhoto(buffer: Uint8Array): Promise<ProcessedPhoto> {
   const opened = await openImage(buffer);
   const upright = await toPixels(opened.pipeline().resize(fitInside(DISPLAY_LONG_SIDE)));
-  const [display, thumbnail, analysisImage, exif] = await Promise.all([
+  const [display, thumbnail, analysisImage, exif, positionFree] = await Promise.all([
     toWebp(upright, DISPLAY_LONG_SIDE, 82),
     toWebp(upright, THUMBNAIL_LONG_SIDE, 75),
     shrinkForAnalysis(opened),
     readExif(buffer),
+    carriesPosition(buffer).then((carries) => (carries ? withoutMetadata(opened) : null)),
   ]);
-  return { format: opened.format, width: opened.width, height: opened.height, exif, display, thumbnail, analysisImage };
+  return { format: opened.format, width: opened.width, height: opened.height, exif, display, thumbnail, analysisImage, positionFree };
+}
+
+/** The EXIF block sharp found, as TIFF (sharp gives JPEG and WebP blocks with their "Exif\0\0" header). */
+function tiffOf(exif: Buffer): Buffer {
+  for (let offset = 0; offset + 4 <= Math.min(exif.length, 16); offset += 1) {
+    const mark = exif.toString('latin1', offset, offset + 4);
+    if (mark === 'II*\0' || mark === 'MM\0*') return exif.subarray(offset);
+  }
+  return exif;
+}
+
+/**
+ * True when the file records where it was taken: a GPS position in its EXIF or XMP. Read through
+ * sharp's metadata, which finds the EXIF of JPEG, PNG, WebP and HEIC alike.
+ */
+export async function carriesPosition(buffer: Uint8Array): Promise<boolean> {
+  const metadata = await sharp(buffer).metadata().catch(() => undefined);
+  if (!metadata) return false;
+  if (metadata.xmp && /GPS(Latitude|Longitude)/.test(metadata.xmp.toString('latin1'))) return true;
+  if (!metadata.exif) return false;
+  try {
+    const position = await exifr.gps(tiffOf(metadata.exif));
+    return Boolean(position && (Number.isFinite(position.latitude) || Number.isFinite(position.longitude)));
+  } catch {
+    return true; // an EXIF block that cannot be read might still hold a position: play safe
+  }
+}
+
+/** The full-size upright image re-encoded without metadata: JPEG (q 95) for JPEG and HEIC, else its own format. */
+async function withoutMetadata(opened: OpenedImage): Promise<PositionFreeOriginal> {
+  const pipeline = opened.pipeline();
+  if (opened.format === 'png') return { data: await pipeline.png().toBuffer(), contentType: 'image/png' };
+  if (opened.format === 'webp') return { data: await pipeline.webp({ quality: 95 }).toBuffer(), contentType: 'image/webp' };
+  return { data: await pipeline.jpeg({ quality: 95, chromaSubsampling: '4:4:4' }).toBuffer(), contentType: 'image/jpeg' };
 }
 
 export { AnalysisInputError } from '../analysis';

@@ -2,6 +2,7 @@ import {
   DeleteObjectsCommand,
   GetObjectCommand,
   HeadBucketCommand,
+  HeadObjectCommand,
   ListObjectsV2Command,
   PutObjectCommand,
   S3Client,
@@ -46,6 +47,18 @@ export async function getObject(key: string): Promise<Uint8Array | undefined> {
   }
 }
 
+/** An object's size in bytes without reading it; undefined when it does not exist. */
+export async function objectSize(key: string): Promise<number | undefined> {
+  try {
+    const result = await s3().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
+    return result.ContentLength ?? 0;
+  } catch (error) {
+    const failure = error as { name?: string; $metadata?: { httpStatusCode?: number } };
+    if (failure.name === 'NotFound' || failure.name === 'NoSuchKey' || failure.$metadata?.httpStatusCode === 404) return undefined;
+    throw error;
+  }
+}
+
 export async function deleteObjects(keys: string[]): Promise<void> {
   for (let start = 0; start < keys.length; start += 1000) {
     const batch = keys.slice(start, start + 1000);
@@ -70,7 +83,7 @@ export async function presignPut(key: string, contentType: string, expiresInSeco
   return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), { expiresIn: expiresInSeconds });
 }
 
-/** A presigned GET for showing a stored file. */
-export async function presignGet(key: string, expiresInSeconds = 3600): Promise<string> {
-  return getSignedUrl(s3(), new GetObjectCommand({ Bucket: bucket(), Key: key }), { expiresIn: expiresInSeconds });
+/** A presigned GET for showing a stored file; a fixed `signingDate` gives the same URL (so browsers can cache it). */
+export async function presignGet(key: string, expiresInSeconds = 3600, signingDate?: Date): Promise<string> {
+  return getSignedUrl(s3(), new GetObjectCommand({ Bucket: bucket(), Key: key }), { expiresIn: expiresInSeconds, signingDate });
 }

@@ -1,0 +1,97 @@
+import { eq } from 'drizzle-orm';
+import { couponLayers, photos, regions, swatches } from '../../../db/schema';
+import type { Database } from '../../../db/client';
+import type { Swatch } from '../analysis';
+import type { RegionInput } from '../photos';
+import type { PhotoAnalysis, PhotoExif } from './image';
+
+/** Writing a photo's row, regions and swatches. Takes the database or a transaction (the seed passes its own). */
+type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;
+
+export interface PhotoFiles {
+  originalKey: string;
+  displayKey: string;
+  thumbKey: string;
+  analysisKey: string;
+  contentType: string;
+  byteSize: number;
+}
+
+/** EXIF "taken at": with its offset it is an instant; without one it is the camera's wall clock, kept as if UTC. */
+export function takenAtDate(takenAt: string | null): Date | null {
+  if (!takenAt) return null;
+  const date = new Date(/[+-]\d{2}:\d{2}$/.test(takenAt) ? takenAt : `${takenAt}Z`);
+  return Number.isNaN(date.getTime()) ? null : date;
+}
+
+export async function insertPhoto(
+  writer: Writer,
+  photo: { couponId: number; ownerId: string; width: number; height: number; exif: PhotoExif } & PhotoFiles,
+): Promise<number> {
+  const { exif, ...rest } = photo;
+  const camera = [exif.cameraMake, exif.cameraModel].filter(Boolean).join(' ') || null;
+  const [{ id }] = await writer
+    .insert(photos)
+    .values({ ...rest, takenAt: takenAtDate(exif.takenAt), camera, lens: exif.lens, exposure: exif.exposure, whiteBalance: exif.whiteBalance })
+    .$returningId();
+  return id;
+}
+
+/** The alloy of each layer of a coupon, for copying onto swatches. */
+export async function layerAlloys(reader: Pick<Database, 'select'>, couponId: number): Promise<Map<number, number>> {
+  const rows = await reader.select({ id: couponLayers.id, alloyId: couponLayers.alloyId }).from(couponLayers).where(eq(couponLayers.couponId, couponId));
+  return new Map(rows.map((row) => [row.id, row.alloyId]));
+}
+
+const swatchColumns = (swatch: Swatch) => ({
+  share: swatch.share,
+  spread: swatch.spread,
+  hex: swatch.hex,
+  labL: swatch.lab.l,
+  labA: swatch.lab.a,
+  labB: swatch.lab.b,
+  oklabL: swatch.oklab.l,
+  oklabA: swatch.oklab.a,
+  oklabB: swatch.oklab.b,
+});
+
+/**
+ * Replaces a photo's regions and swatches with these. `analysis.regions` follows the layer
+ * regions in the order given (see analyseRegions), or is the whole photo when there are none:
+ * those swatches get no region and no layer. Each group stores its mean (rank 0, isMean) and
+ * its swatches ranked 1… by share.
+ */
+export async function writeRegions(
+  writer: Writer,
+  photo: { id: number; couponId: number },
+  drawn: RegionInput[],
+  analysis: PhotoAnalysis,
+  alloyByLayer: Map<number, number>,
+): Promise<void> {
+  await writer.delete(swatches).where(eq(swatches.photoId, photo.id));
+  await writer.delete(regions).where(eq(regions.photoId, photo.id));
+  const layerRegions = drawn.filter((region) => region.kind === 'layer');
+  const groups: { regionId: number | null; layerId: number | null }[] = [];
+  for (const region of drawn) {
+    const layerId = region.kind === 'layer' ? region.layerId : null;
+    const { x, y, width, height } = region;
+    const [{ id }] = await writer.insert(regions).values({ photoId: photo.id, kind: region.kind, layerId, x, y, width, height }).$returningId();
+    if (region.kind === 'layer') groups.push({ regionId: id, layerId });
+  }
+  if (layerRegions.length === 0) groups.push({ regionId: null, layerId: null });
+  const rows = analysis.regions.flatMap((result, index) => {
+    const { regionId, layerId } = groups[index];
+    const common = { regionId, layerId, photoId: photo.id, couponId: photo.couponId, alloyId: layerId === null ? null : (alloyByLayer.get(layerId) ?? null) };
+    return [
+      ...(result.mean ? [{ ...common, rank: 0, isMean: true, ...swatchColumns(result.mean) }] : []),
+      ...result.swatches.map((swatch, rank) => ({ ...common, rank: rank + 1, isMean: false, ...swatchColumns(swatch) })),
+    ];
+  });
+  if (rows.length) await writer.insert(swatches).values(rows);
+}
+
+/** MariaDB's "a foreign key constraint fails" when the coupon went while the photo was processed. */
+export function isMissingParent(error: unknown): boolean {
+  const failure = error as { errno?: number; cause?: { errno?: number } } | undefined;
+  return (failure?.errno ?? failure?.cause?.errno) === 1452;
+}

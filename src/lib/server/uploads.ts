@@ -1,0 +1,139 @@
+import { and, asc, eq, gte, like, lt, sql } from 'drizzle-orm';
+import { appSettings, photos, uploads } from '../../../db/schema';
+import type { Database } from '../../../db/client';
+import { UPLOAD_EXPIRY_SECONDS, type PhotoContentType, type UploadTicket } from '../photos';
+import { db } from './db';
+import { folderOf, newUploadKey } from './photo-files';
+import { deleteObjects, listKeys, presignPut } from './storage';
+
+/**
+ * The `uploads` table is the ledger of objects in storage that no photo row owns yet (or any
+ * more). Every such object has an entry; the sweep deletes the objects of entries gone stale.
+ *
+ * - A presigned upload adds an entry that expires with the URL (10 minutes).
+ * - Attaching claims the entry (its expiry moves on while the photo is processed); success
+ *   removes it in the same transaction that writes the photo row.
+ * - An entry is stale STALE_AFTER_MINUTES after it expires. From then on it can no longer be
+ *   claimed, and the sweep clears its folder — unless a photo owns that folder, in which case
+ *   only the entry's own key goes (e.g. an original replaced by a copy without its GPS position).
+ * - Deleting a photo adds a stale entry for its folder in the transaction that removes the row,
+ *   so files a failed deletion leaves behind are swept later.
+ *
+ * Claim and sweep take disjoint sets of entries at every instant (not yet stale / stale), and
+ * staleness only grows with time, so any number of app processes may attach and sweep at once.
+ */
+export const STALE_AFTER_MINUTES = 30;
+/** How long a claimed upload stays claimed while it is processed. */
+const CLAIM_SECONDS = 10 * 60;
+
+const minutesAgo = (minutes: number, now = Date.now()) => new Date(now - minutes * 60_000);
+const affectedRows = (result: unknown) => (result as [{ affectedRows: number }])[0].affectedRows;
+
+export async function createUpload(ownerId: string, contentType: PhotoContentType, byteSize: number): Promise<UploadTicket> {
+  const key = newUploadKey(ownerId, contentType);
+  const expiresAt = new Date(Date.now() + UPLOAD_EXPIRY_SECONDS * 1000);
+  await db().insert(uploads).values({ key, ownerId, contentType, byteSize, expiresAt });
+  const url = await presignPut(key, contentType, UPLOAD_EXPIRY_SECONDS);
+  return { key, url, headers: { 'content-type': contentType }, expiresAt: expiresAt.toISOString() };
+}
+
+export type Claim = 'claimed' | 'unknown' | 'expired';
+
+/** Claims an upload of the owner's for attaching: 'unknown' when there is no such entry, 'expired' when it is stale. */
+export async function claimUpload(ownerId: string, key: string): Promise<Claim> {
+  const now = Date.now();
+  const result = await db()
+    .update(uploads)
+    .set({ expiresAt: new Date(now + CLAIM_SECONDS * 1000) })
+    .where(and(eq(uploads.key, key), eq(uploads.ownerId, ownerId), gte(uploads.expiresAt, minutesAgo(STALE_AFTER_MINUTES, now))));
+  if (affectedRows(result) === 1) return 'claimed';
+  const [entry] = await db().select({ key: uploads.key }).from(uploads).where(and(eq(uploads.key, key), eq(uploads.ownerId, ownerId)));
+  return entry ? 'expired' : 'unknown';
+}
+
+/** Within a transaction: ends an entry once a photo row owns the object. False when another attach got there first. */
+export async function settleUpload(tx: Pick<Database, 'delete'>, key: string): Promise<boolean> {
+  return affectedRows(await tx.delete(uploads).where(eq(uploads.key, key))) === 1;
+}
+
+/** Within a transaction: records objects no row will own, stale at once, so the sweep removes them if nothing else does. */
+export async function forgetLater(tx: Pick<Database, 'insert'>, entry: { key: string; ownerId: string; contentType: string; byteSize: number }) {
+  const long = minutesAgo(STALE_AFTER_MINUTES + 1);
+  await tx
+    .insert(uploads)
+    .values({ ...entry, expiresAt: long })
+    .onDuplicateKeyUpdate({ set: { expiresAt: long } });
+}
+
+/** Drops an entry whose objects are gone (best effort: a left-over entry is swept anyway). */
+export async function dropEntry(key: string): Promise<void> {
+  await db().delete(uploads).where(eq(uploads.key, key)).catch(() => undefined);
+}
+
+export interface SweepResult {
+  entries: number;
+  objects: number;
+}
+
+/**
+ * Deletes the objects of stale ledger entries and then the entries. Safe to run in several
+ * processes at once: deleting an object twice is harmless, and an entry is removed only while
+ * it is still stale.
+ */
+export async function sweepStaleUploads(now = Date.now(), batch = 200): Promise<SweepResult> {
+  const cutoff = minutesAgo(STALE_AFTER_MINUTES, now);
+  const stale = await db()
+    .select({ key: uploads.key, ownerId: uploads.ownerId })
+    .from(uploads)
+    .where(lt(uploads.expiresAt, cutoff))
+    .orderBy(asc(uploads.expiresAt))
+    .limit(batch);
+  const result: SweepResult = { entries: 0, objects: 0 };
+  for (const entry of stale) {
+    const folder = folderOf(entry.key);
+    const owners = await db()
+      .select({ originalKey: photos.originalKey })
+      .from(photos)
+      .where(and(eq(photos.ownerId, entry.ownerId), like(photos.originalKey, `${folder.replace(/[\\%_]/g, '\\$&')}%`)));
+    const attached = owners.some((photo) => photo.originalKey === entry.key);
+    const doomed = attached ? [] : owners.length > 0 ? [entry.key] : [...new Set([entry.key, ...(await listKeys(folder))])];
+    await deleteObjects(doomed);
+    result.objects += doomed.length;
+    result.entries += affectedRows(await db().delete(uploads).where(and(eq(uploads.key, entry.key), lt(uploads.expiresAt, cutoff))));
+  }
+  return result;
+}
+
+const SWEEP_SETTING = 'uploads-swept-at';
+/** How often some process sweeps. */
+export const SWEEP_EVERY_MINUTES = 10;
+
+/**
+ * Sweeps if no process has in the last SWEEP_EVERY_MINUTES: the turn is claimed with one
+ * conditional UPDATE of a stamp in app_settings, so one process wins however many try.
+ */
+export async function sweepIfDue(now = Date.now()): Promise<SweepResult | null> {
+  await db().insert(appSettings).ignore().values({ key: SWEEP_SETTING, value: new Date(0).toISOString() });
+  const due = new Date(now - (SWEEP_EVERY_MINUTES * 60_000 - 5_000)).toISOString();
+  const claimed = await db()
+    .update(appSettings)
+    .set({ value: new Date(now).toISOString() })
+    .where(and(eq(appSettings.key, SWEEP_SETTING), sql`${appSettings.value} < ${due}`));
+  return affectedRows(claimed) === 1 ? sweepStaleUploads(now) : null;
+}
+
+let timer: NodeJS.Timeout | undefined;
+
+/**
+ * Starts this process's sweep timer (once; the middleware calls it on every request). Each app
+ * process ticks every few minutes with jitter; sweepIfDue lets one of them sweep per period.
+ */
+export function startUploadSweeper(): void {
+  if (timer) return;
+  const tick = () => {
+    sweepIfDue().catch((error: unknown) => console.error(`[oxbloom] upload sweep failed: ${error instanceof Error ? error.message : error}`));
+  };
+  timer = setInterval(tick, (SWEEP_EVERY_MINUTES / 2) * 60_000 + Math.floor(Math.random() * 60_000));
+  timer.unref();
+  setTimeout(tick, 30_000).unref();
+}

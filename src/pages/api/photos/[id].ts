@@ -1,0 +1,29 @@
+import type { APIRoute } from 'astro';
+import { checkAccess, isResponse, requireRole } from '../../../lib/server/authorise';
+import { json, problem } from '../../../lib/server/http';
+import { deletePhoto, findPhoto, photoView } from '../../../lib/server/photos';
+import { routeId } from '../../../lib/server/route-params';
+
+async function load(params: Record<string, string | undefined>) {
+  const id = routeId(params, 'That photo');
+  if (isResponse(id)) return id;
+  return (await findPhoto(id)) ?? problem(404, 'That photo was not found.');
+}
+
+export const GET: APIRoute = async (context) => {
+  const found = await load(context.params);
+  if (isResponse(found)) return found;
+  return checkAccess(context.locals.user, found.coupon, 'see', 'That photo') ?? json(await photoView(found.photo));
+};
+
+/** Deletes the photo, its regions and swatches, and its files in storage (the coupon's owner or an admin). */
+export const DELETE: APIRoute = async (context) => {
+  const user = await requireRole(context, 'member');
+  if (isResponse(user)) return user;
+  const found = await load(context.params);
+  if (isResponse(found)) return found;
+  const denied = checkAccess(user, found.coupon, 'change', 'That photo');
+  if (denied) return denied;
+  await deletePhoto(found.photo);
+  return new Response(null, { status: 204 });
+};

@@ -1,0 +1,31 @@
+import type { APIRoute } from 'astro';
+import { checkRegions, regionsRequestSchema } from '../../../../lib/photo-requests';
+import { checkAccess, isResponse, requireRole } from '../../../../lib/server/authorise';
+import { db } from '../../../../lib/server/db';
+import { json, parseJson, problem } from '../../../../lib/server/http';
+import { layerAlloys } from '../../../../lib/server/photo-records';
+import { findPhoto, photoView, reanalysePhoto } from '../../../../lib/server/photos';
+import { refusalResponse } from '../../../../lib/server/refusal';
+import { routeId } from '../../../../lib/server/route-params';
+
+/** Replaces the photo's regions and measures it again; answers the photo with its new swatches. */
+export const PUT: APIRoute = async (context) => {
+  const user = await requireRole(context, 'member');
+  if (isResponse(user)) return user;
+  const id = routeId(context.params, 'That photo');
+  if (isResponse(id)) return id;
+  const found = await findPhoto(id);
+  const denied = checkAccess(user, found?.coupon, 'change', 'That photo');
+  if (denied || !found) return denied ?? problem(404, 'That photo was not found.');
+  const input = await parseJson(context.request, regionsRequestSchema);
+  if (!input.ok) return input.response;
+  const layerIds = [...(await layerAlloys(db(), found.coupon.id)).keys()];
+  const fault = checkRegions(input.data.regions, layerIds, found.photo);
+  if (fault) return problem(400, fault.message, fault.field);
+  try {
+    await reanalysePhoto(found.photo, input.data.regions);
+    return json(await photoView(found.photo));
+  } catch (error) {
+    return refusalResponse(error);
+  }
+};
