@@ -86,6 +86,13 @@ export interface SwatchView {
   spread: number;
 }
 
+/** The tint band of the layer's alloy whose colour is nearest the region's mean, and the film it means. */
+export interface NearestTint {
+  name: string;
+  thicknessNm: number;
+  deltaE00: number;
+}
+
 /**
  * The swatches of one layer's region, or of the whole photo when no layer region is drawn
  * (then `layerId` and `regionId` are null and the background is part of what was measured).
@@ -95,6 +102,7 @@ export interface SwatchGroup {
   layerId: number | null;
   mean: SwatchView | null;
   swatches: SwatchView[];
+  tint: NearestTint | null;
 }
 
 export interface PhotoView {

@@ -117,6 +117,13 @@ describe('the whole path: presign, PUT to storage, attach', () => {
     expect(Math.max(thumb.width!, thumb.height!)).toBeLessThanOrEqual(400);
   });
 
+  it('attaches several photos at once (the uploader sends two at a time)', async () => {
+    const before = await photoCount();
+    const responses = await Promise.all([0, 1, 2, 3].map(() => uploadPhoto(member, coupon.id, jpeg)));
+    expect(responses.map(({ response }) => response.status)).toEqual([201, 201, 201, 201]);
+    expect(await photoCount()).toBe(before + 4);
+  });
+
   it('refuses to attach the same upload twice', async () => {
     const { ticket, response } = await uploadPhoto(member, coupon.id, jpeg);
     expect(response.status).toBe(201);

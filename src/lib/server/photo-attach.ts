@@ -4,7 +4,7 @@ import { db } from './db';
 import { ImageRejected } from './image';
 import { analyseRegions } from './photo-analysis';
 import { isUsersKey } from './photo-keys';
-import { insertPhoto, isMissingParent, layerAlloys, writeRegions } from './photo-records';
+import { insertPhoto, isMissingParent, layerAlloys, photoTransaction, writeRegions } from './photo-records';
 import { processPhotoInTurn, writeDerivedFiles } from './photo-store';
 import { Refused } from './refusal';
 import { deleteObjects, getObject, objectSize } from './storage';
@@ -57,12 +57,12 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   const files = await writeDerivedFiles(key, bytes.length, processed);
   let photoId: number;
   try {
-    photoId = await db().transaction(async (tx) => {
+    photoId = await photoTransaction(db(), async (tx) => {
       if (!(await settleUpload(tx, key))) throw new Refused(409, 'That upload was attached already.', 'key');
       // The uploaded file still carries its GPS position: its entry stays, stale, until it is deleted below.
       if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: files.contentType, byteSize: bytes.length });
       const id = await insertPhoto(tx, { couponId, ownerId, width: processed.width, height: processed.height, exif: processed.exif, ...files });
-      await writeRegions(tx, { id, couponId }, regions, analysis, await layerAlloys(tx, couponId));
+      await writeRegions(tx, { id, couponId }, regions, analysis, await layerAlloys(tx, couponId), { replacing: false });
       return id;
     });
   } catch (error) {

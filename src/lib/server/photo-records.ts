@@ -7,6 +7,29 @@ import type { PhotoAnalysis, PhotoExif } from './image';
 
 /** Writing a photo's row, regions and swatches. Takes the database or a transaction (the seed passes its own). */
 type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;
+type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
+
+const DEADLOCK = 1213;
+const errnoOf = (error: unknown) => {
+  const failure = error as { errno?: number; cause?: { errno?: number } } | undefined;
+  return failure?.errno ?? failure?.cause?.errno;
+};
+
+/**
+ * A transaction for photo writes: READ COMMITTED, so deleting a photo's rows takes no gap locks
+ * that block another photo's inserts, and tried again (up to three times) if InnoDB still picks
+ * it as a deadlock victim, as it may when several photos are saved at once.
+ */
+export async function photoTransaction<T>(database: Database, work: (tx: Transaction) => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      return await database.transaction(work, { isolationLevel: 'read committed' });
+    } catch (error) {
+      if (errnoOf(error) !== DEADLOCK || attempt >= 3) throw error;
+      await new Promise((resolve) => setTimeout(resolve, 20 * attempt + Math.random() * 30));
+    }
+  }
+}
 
 export interface PhotoFiles {
   originalKey: string;
@@ -56,10 +79,10 @@ const swatchColumns = (swatch: Swatch) => ({
 });
 
 /**
- * Replaces a photo's regions and swatches with these. `analysis.regions` follows the layer
- * regions in the order given (see analyseRegions), or is the whole photo when there are none:
- * those swatches get no region and no layer. Each group stores its mean (rank 0, isMean) and
- * its swatches ranked 1… by share.
+ * Writes a photo's regions and swatches (replacing what it had when `replacing`).
+ * `analysis.regions` follows the layer regions in the order given (see analyseRegions), or is
+ * the whole photo when there are none: those swatches get no region and no layer. Each group
+ * stores its mean (rank 0, isMean) and its swatches ranked 1… by share.
  */
 export async function writeRegions(
   writer: Writer,
@@ -67,9 +90,12 @@ export async function writeRegions(
   drawn: RegionInput[],
   analysis: PhotoAnalysis,
   alloyByLayer: Map<number, number>,
+  { replacing }: { replacing: boolean },
 ): Promise<void> {
-  await writer.delete(swatches).where(eq(swatches.photoId, photo.id));
-  await writer.delete(regions).where(eq(regions.photoId, photo.id));
+  if (replacing) {
+    await writer.delete(swatches).where(eq(swatches.photoId, photo.id));
+    await writer.delete(regions).where(eq(regions.photoId, photo.id));
+  }
   const layerRegions = drawn.filter((region) => region.kind === 'layer');
   const groups: { regionId: number | null; layerId: number | null }[] = [];
   for (const region of drawn) {
@@ -91,7 +117,4 @@ export async function writeRegions(
 }
 
 /** MariaDB's "a foreign key constraint fails" when the coupon went while the photo was processed. */
-export function isMissingParent(error: unknown): boolean {
-  const failure = error as { errno?: number; cause?: { errno?: number } } | undefined;
-  return (failure?.errno ?? failure?.cause?.errno) === 1452;
-}
+export const isMissingParent = (error: unknown) => errnoOf(error) === 1452;

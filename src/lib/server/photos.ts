@@ -1,11 +1,12 @@
 import { asc, eq, inArray } from 'drizzle-orm';
-import { coupons, photos, regions, swatches } from '../../../db/schema';
+import { alloys, couponLayers, coupons, photos, regions, swatches } from '../../../db/schema';
+import { nearestTint } from '../photo-tints';
 import type { PhotoView, RegionInput, SwatchGroup, SwatchView } from '../photos';
 import { db } from './db';
 import { decodeForAnalysis } from './image';
 import { decodeAnalysisImage, analyseRegions } from './photo-analysis';
 import { folderOf, viewUrl } from './photo-files';
-import { isMissingParent, layerAlloys, writeRegions } from './photo-records';
+import { isMissingParent, layerAlloys, photoTransaction, writeRegions } from './photo-records';
 import { Refused } from './refusal';
 import { deleteObjects, getObject, listKeys } from './storage';
 import { dropEntry, forgetLater } from './uploads';
@@ -42,12 +43,14 @@ export async function photoViews(couponId: number): Promise<PhotoView[]> {
   const ids = rows.map((row) => row.id);
   const regionRows = await db().select().from(regions).where(inArray(regions.photoId, ids)).orderBy(asc(regions.id));
   const swatchRows = await db().select().from(swatches).where(inArray(swatches.photoId, ids)).orderBy(asc(swatches.id));
+  const layerRows = await db().select({ id: couponLayers.id, alloy: alloys.slug }).from(couponLayers).innerJoin(alloys, eq(alloys.id, couponLayers.alloyId)).where(eq(couponLayers.couponId, couponId));
+  const alloyOf = new Map(layerRows.map((layer) => [layer.id, layer.alloy]));
   return Promise.all(rows.map(async (row) => {
     const own = regionRows.filter((region) => region.photoId === row.id);
     const groups = new Map<string, SwatchGroup>();
     for (const swatch of swatchRows.filter((candidate) => candidate.photoId === row.id)) {
       const groupKey = String(swatch.regionId);
-      const group = groups.get(groupKey) ?? { regionId: swatch.regionId, layerId: swatch.layerId, mean: null, swatches: [] };
+      const group: SwatchGroup = groups.get(groupKey) ?? { regionId: swatch.regionId, layerId: swatch.layerId, mean: null, swatches: [], tint: null };
       if (swatch.isMean) group.mean = swatchView(swatch);
       else group.swatches[swatch.rank - 1] = swatchView(swatch);
       groups.set(groupKey, group);
@@ -69,7 +72,11 @@ export async function photoViews(couponId: number): Promise<PhotoView[]> {
       thumbUrl: await viewUrl(row.thumbKey),
       regions: own.map(({ id, kind, layerId, x, y, width, height }) => ({ id, kind, layerId, x, y, width, height })),
       whiteBalanced: own.some((region) => region.kind === 'grey'),
-      groups: [...groups.values()].map((group) => ({ ...group, swatches: group.swatches.filter(Boolean) })),
+      groups: [...groups.values()].map((group) => {
+        const alloy = group.layerId === null ? undefined : alloyOf.get(group.layerId);
+        const tint = alloy && group.mean ? nearestTint(alloy, group.mean.lab) : null;
+        return { ...group, swatches: group.swatches.filter(Boolean), tint };
+      }),
     };
   }));
 }
@@ -92,11 +99,11 @@ async function analysisImageOf(photo: PhotoRecord) {
 export async function reanalysePhoto(photo: PhotoRecord, drawn: RegionInput[]): Promise<void> {
   const analysis = analyseRegions(await analysisImageOf(photo), drawn);
   try {
-    await db().transaction(async (tx) => {
+    await photoTransaction(db(), async (tx) => {
       // Locks the photo row, so two saves of the same photo take turns instead of mixing.
       const [locked] = await tx.select({ id: photos.id }).from(photos).where(eq(photos.id, photo.id)).for('update');
       if (!locked) throw new Refused(404, 'That photo was not found.');
-      await writeRegions(tx, photo, drawn, analysis, await layerAlloys(tx, photo.couponId));
+      await writeRegions(tx, photo, drawn, analysis, await layerAlloys(tx, photo.couponId), { replacing: true });
     });
   } catch (error) {
     if (isMissingParent(error)) throw new Refused(400, 'A layer of those regions is no longer part of the coupon.', 'regions');
@@ -109,7 +116,7 @@ export async function reanalysePhoto(photo: PhotoRecord, drawn: RegionInput[]): 
  * entry for its folder, then the files; if deleting the files fails, the sweep finishes the job.
  */
 export async function deletePhoto(photo: PhotoRecord): Promise<void> {
-  await db().transaction(async (tx) => {
+  await photoTransaction(db(), async (tx) => {
     await forgetLater(tx, { key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize });
     await tx.delete(photos).where(eq(photos.id, photo.id));
   });

@@ -1,0 +1,54 @@
+// The photo requests' own checks, table-driven; the limits are the issue's (four formats, 30 MB).
+import { describe, expect, it } from 'vitest';
+import { checkRegions, refuseUpload, regionsSchema, TOO_BIG, UNACCEPTED_TYPE, uploadRequestSchema } from '../../../src/lib/photo-requests';
+import { declaredContentType, formatLab, formatShare, MAX_UPLOAD_BYTES } from '../../../src/lib/photos';
+
+describe('an upload request', () => {
+  it.each([
+    // [content type, size, refusal]
+    ['image/jpeg', 1, null],
+    ['image/heic', MAX_UPLOAD_BYTES, null],
+    ['image/jpeg', MAX_UPLOAD_BYTES + 1, { status: 413, message: TOO_BIG, field: 'size' }],
+    ['image/gif', 10, { status: 415, message: UNACCEPTED_TYPE, field: 'contentType' }],
+    ['application/octet-stream', 10, { status: 415, message: UNACCEPTED_TYPE, field: 'contentType' }],
+  ])('%s of %i bytes', (contentType, size, refusal) => {
+    expect(refuseUpload(uploadRequestSchema.parse({ filename: 'a', contentType, size }))).toEqual(refusal);
+  });
+
+  it('reads the type from the name when the browser gives none (desktop browsers and HEIC)', () => {
+    expect(declaredContentType({ name: 'IMG_0042.HEIC', type: '' })).toBe('image/heic');
+    expect(declaredContentType({ name: 'coupon.jpeg', type: '' })).toBe('image/jpeg');
+    expect(declaredContentType({ name: 'coupon.png', type: 'image/png' })).toBe('image/png');
+    expect(declaredContentType({ name: 'notes', type: '' })).toBe('application/octet-stream');
+  });
+});
+
+describe('regions', () => {
+  const layer = (layerId: number, x = 0) => ({ kind: 'layer' as const, layerId, x, y: 0, width: 10, height: 10 });
+  const grey = { kind: 'grey' as const, x: 0, y: 0, width: 10, height: 10 };
+
+  it.each([
+    ['one per layer and a grey card', [layer(1), layer(2), grey], null],
+    ['none at all', [], null],
+    ['a layer twice', [layer(1), layer(1, 20)], 'Mark each layer once.'],
+    ['two grey cards', [grey, grey], 'Mark at most one grey card.'],
+  ])('%s', (_label, regions, message) => {
+    const result = regionsSchema.safeParse(regions);
+    expect(result.success ? null : result.error.issues[0].message).toBe(message);
+  });
+
+  it('must name the coupon’s own layers and lie inside the photo', () => {
+    const size = { width: 100, height: 50 };
+    expect(checkRegions([layer(1), grey], [1, 2], size)).toBeNull();
+    expect(checkRegions([layer(3)], [1, 2], size)).toEqual({ field: 'regions.0.layerId', message: 'regions.0.layerId: that layer is not part of this coupon.' });
+    expect(checkRegions([layer(1, 95)], [1], size)).toEqual({ field: 'regions.0', message: 'regions.0: The rectangle reaches outside the photo (100 × 50 pixels).' });
+  });
+});
+
+describe('how swatches are written on a chip', () => {
+  it('gives L*a*b* to one decimal with true minus signs, and shares in whole percent', () => {
+    expect(formatLab({ l: 52.06, a: -3.449, b: 18 })).toBe('L* 52.1  a* −3.4  b* 18.0');
+    expect(formatLab({ l: 40, a: -0.04, b: 0 })).toBe('L* 40.0  a* 0.0  b* 0.0');
+    expect(formatShare(0.6249)).toBe('62 %');
+  });
+});
