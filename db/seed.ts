@@ -7,6 +7,7 @@ import { alloys, appSettings, couponLayers, coupons, users } from './schema';
 import { alloyCatalogue, layerKeyOf } from '../src/lib/alloys';
 import { demoPassword, demoPeople } from './seed-data/people';
 import { demoCoupons } from './seed-data/coupons';
+import { seedDemoPhotos } from './seed-data/photos';
 
 const DEMO_MARKER = 'demo-seeded';
 
@@ -42,6 +43,7 @@ async function seedDemo(db: Database) {
       await tx.insert(couponLayers).values(demo.layers.map((slug, position) => ({ couponId: id, position, alloyId: alloyIdBySlug.get(slug)! })));
     });
   }
+  console.log(`[oxbloom] demo photos: ${await seedDemoPhotos(db)} stored and measured.`);
 }
 
 async function main() {

@@ -1,0 +1,49 @@
+// The demo's synthetic photos (invented data): stored in S3 like uploads, measured with a region
+// per layer and the grey card, and spread so every demo member has photos in every visibility.
+import { afterAll, describe, expect, it } from 'vitest';
+import { eq, inArray, sql } from 'drizzle-orm';
+import { couponLayers, coupons, photos, regions, swatches, users } from '../../db/schema';
+import { demoPeople } from '../../db/seed-data/people';
+import { objectSize, s3 } from '../../src/lib/server/storage';
+import { testDatabase } from '../support/database';
+
+const { db, pool } = testDatabase();
+afterAll(async () => {
+  await pool.end();
+  s3().destroy();
+});
+
+const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
+
+describe('the demo photos', () => {
+  it('give every demo member photos on coupons of every visibility, at most 40 in all', async () => {
+    const rows = await db
+      .select({ email: users.email, visibility: coupons.visibility, photos: sql<number>`count(${photos.id})` })
+      .from(photos)
+      .innerJoin(coupons, eq(coupons.id, photos.couponId))
+      .innerJoin(users, eq(users.id, coupons.ownerId))
+      .where(inArray(users.email, owners))
+      .groupBy(users.email, coupons.visibility);
+    for (const email of owners) {
+      for (const visibility of ['private', 'members', 'public']) {
+        expect(rows.find((row) => row.email === email && row.visibility === visibility)?.photos, `${email} ${visibility}`).toBeGreaterThan(0);
+      }
+    }
+    const total = rows.reduce((sum, row) => sum + Number(row.photos), 0);
+    expect(total).toBeLessThanOrEqual(40);
+  });
+
+  it('are stored like uploads and measured per layer with a grey card', async () => {
+    const demoPhotos = await db.select().from(photos).where(sql`${photos.originalKey} like 'users/%'`).limit(40);
+    expect(demoPhotos.length).toBeGreaterThan(0);
+    for (const photo of demoPhotos.slice(0, 6)) {
+      for (const key of [photo.originalKey, photo.displayKey, photo.thumbKey, photo.analysisKey!]) expect(await objectSize(key), key).toBeGreaterThan(0);
+      const layers = await db.select({ id: couponLayers.id }).from(couponLayers).where(eq(couponLayers.couponId, photo.couponId));
+      const drawn = await db.select().from(regions).where(eq(regions.photoId, photo.id));
+      expect(drawn.filter((region) => region.kind === 'layer').map((region) => region.layerId).sort()).toEqual(layers.map((layer) => layer.id).sort());
+      expect(drawn.filter((region) => region.kind === 'grey')).toHaveLength(1);
+      const means = await db.select().from(swatches).where(eq(swatches.photoId, photo.id));
+      for (const layer of layers) expect(means.some((swatch) => swatch.layerId === layer.id && swatch.isMean && swatch.alloyId !== null)).toBe(true);
+    }
+  });
+});
