@@ -22,6 +22,8 @@ interface Ids {
   member2: string;
   /** The demo member's coupons, one per visibility. */
   memberCoupon: Record<'private' | 'members' | 'public', number>;
+  /** Photos of the demo member's coupons (the demo seed gives some coupons of each visibility photos). */
+  memberPhoto: Record<'private' | 'members', number>;
 }
 
 const all = (status: number): Record<Who, number> => ({ visitor: status, member: status, member2: status, instructor: status, admin: status });
@@ -57,6 +59,22 @@ export const matrix: Row[] = [
   // The owner's and an admin's deletes really delete: tests/integration/coupons.test.ts covers them.
   { route: 'delete a private coupon', method: 'DELETE', path: (ids) => `/api/coupons/${ids.memberCoupon.private}`, expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null } },
   { route: 'delete a members coupon', method: 'DELETE', path: (ids) => `/api/coupons/${ids.memberCoupon.members}`, expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null } },
+
+  // photos and uploads (the photos are the demo member's; uploads and attaches that would store something are tested in uploads.test.ts)
+  { route: 'ask for an upload URL, wrong type', method: 'POST', path: '/api/uploads', json: { filename: 'a.gif', contentType: 'image/gif', size: 10 }, expect: signedInOnly(415) },
+  { route: 'list a private coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 } },
+  { route: 'list a members coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.members}/photos`, expect: { ...all(200), visitor: 404 } },
+  { route: 'list a public coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.public}/photos`, expect: all(200) },
+  { route: 'attach to a private coupon, invalid', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, json: {}, expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 } },
+  { route: 'attach to a public coupon, invalid', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.public}/photos`, json: {}, expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 } },
+  { route: 'attach someone else’s upload', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, json: { key: 'users/someone-else/photos/x/original.jpg' }, expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 403 } },
+  { route: 'open a photo of a private coupon', method: 'GET', path: (ids) => `/api/photos/${ids.memberPhoto.private}`, expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 } },
+  { route: 'open a photo of a members coupon', method: 'GET', path: (ids) => `/api/photos/${ids.memberPhoto.members}`, expect: { ...all(200), visitor: 404 } },
+  { route: 'mark regions on a private photo, invalid', method: 'PUT', path: (ids) => `/api/photos/${ids.memberPhoto.private}/regions`, json: { regions: 'all' }, expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 } },
+  { route: 'mark regions on a members photo, invalid', method: 'PUT', path: (ids) => `/api/photos/${ids.memberPhoto.members}/regions`, json: { regions: 'all' }, expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 } },
+  // The owner's and an admin's deletes really delete: tests/integration/photos.test.ts covers them.
+  { route: 'delete a photo of a private coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.private}`, expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null } },
+  { route: 'delete a photo of a members coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.members}`, expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null } },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -72,6 +90,14 @@ beforeAll(async () => {
   const mine = ((await (await api('/api/coupons?mine=1&limit=100', { jar: jars.member })).json()) as { coupons: { id: number; visibility: 'private' | 'members' | 'public' }[] }).coupons;
   const first = (visibility: 'private' | 'members' | 'public') => mine.find((coupon) => coupon.visibility === visibility)!.id;
   ids.memberCoupon = { private: first('private'), members: first('members'), public: first('public') };
+  const photoOf = async (visibility: 'private' | 'members') => {
+    for (const coupon of mine.filter((candidate) => candidate.visibility === visibility)) {
+      const { photos } = (await (await api(`/api/coupons/${coupon.id}/photos`, { jar: jars.member })).json()) as { photos: { id: number }[] };
+      if (photos.length) return photos[0].id;
+    }
+    throw new Error(`The demo member has no ${visibility} coupon with a photo`);
+  };
+  ids.memberPhoto = { private: await photoOf('private'), members: await photoOf('members') };
 });
 
 const cases = matrix.flatMap((row) => everyone.filter((who) => row.expect[who] !== null).map((who) => ({ ...row, who, status: row.expect[who] })));
