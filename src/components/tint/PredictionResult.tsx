@@ -36,8 +36,8 @@ export function PredictionResult({ prediction, planned, signedIn }: Props) {
       <ul className="grid gap-2 sm:grid-cols-3" aria-label="The band's ends and middle">
         {ends.map((end) => (
           <li key={end.key} className="grid gap-1">
-            <span className="text-xs font-semibold tracking-wide text-ash-600 uppercase">{end.title}</span>
-            <ColourChip hex={end.hex} label={end.name} detail={`${end.nm} nm · ${end.hex}`} large={end.key === 'mid'} />
+            <span className={end.key === 'mid' ? 'text-xs font-semibold tracking-wide text-ash-900 uppercase' : 'text-xs font-semibold tracking-wide text-ash-600 uppercase'}>{end.title}</span>
+            <ColourChip hex={end.hex} label={end.name} detail={`${end.nm} nm · ${end.hex}`} />
           </li>
         ))}
       </ul>
