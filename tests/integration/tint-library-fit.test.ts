@@ -9,8 +9,9 @@ import { findTintModel } from '../../src/lib/tint/models';
 // The heat planner's library fit against the real database: coupons with swatches are inserted
 // directly, their colours made by our own tint model at thicknesses from a known growth law
 // (invented data), and the routes must fit them, count them by who may see them, and refit when
-// the library changes. Ti-3Al-2.5V (ti-grade-9) is used because no other test gives it swatches.
-const ALLOY = 'ti-grade-9';
+// the library changes. Titanium Grade 4 is used because the demo has no coupons of it (so no
+// swatches either) and no other test gives it any.
+const ALLOY = 'ti-grade-4';
 const prior = findTintModel(ALLOY)!.heat!;
 /** The known law: the prior's parabolic law, but 30 % thicker films (so the fit must move). */
 const knownLaw: HeatGrowthLaw = { ...prior.law, reference: { ...prior.law.reference, thicknessNm: prior.law.reference.thicknessNm * 1.3 } };
