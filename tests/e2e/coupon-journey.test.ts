@@ -89,9 +89,14 @@ describe('logging a coupon with photos in Chromium', () => {
     await page.getByLabel('Choose photos').setInputFiles({ name: 'laminate.jpg', mimeType: 'image/jpeg', buffer: jpeg });
     const upload = page.getByRole('listitem', { name: 'laminate.jpg' });
     const progress = upload.getByRole('progressbar');
-    await page.waitForFunction(() => [...document.querySelectorAll('progress')].some((bar) => bar.value > 0 && bar.value < 100));
+    await page.waitForFunction(() =>
+      [...document.querySelectorAll('[role="progressbar"]')].some((bar) => {
+        const percent = Number(bar.getAttribute('aria-valuenow'));
+        return percent > 0 && percent < 100;
+      }),
+    );
     await upload.getByText('Added').waitFor();
-    expect(await progress.getAttribute('value')).toBe('100');
+    expect(await progress.getAttribute('aria-valuenow')).toBe('100');
     await network.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
 
     // Until a layer is marked, the whole photo is measured.

@@ -33,6 +33,25 @@ function refusal(file: File): string | undefined {
 
 let nextId = 1;
 
+/** The file's progress: how much has gone to storage, then a pulsing full bar while it is measured. */
+function Bar({ item }: { item: Item }) {
+  const measuring = item.status === 'measuring';
+  const percent = Math.round(item.progress * 100);
+  return (
+    <div
+      className="mt-2 h-2 w-full overflow-hidden rounded-full bg-ash-200"
+      role="progressbar"
+      aria-label={`Upload of ${item.file.name}`}
+      aria-valuemin={0}
+      aria-valuemax={100}
+      aria-valuenow={measuring ? undefined : percent}
+      aria-valuetext={measuring ? 'Uploaded; measuring colours' : `${percent} %`}
+    >
+      <div className={`h-full rounded-full bg-oxide-700 transition-[width] duration-200 ${measuring ? 'animate-pulse' : ''}`} style={{ width: `${measuring ? 100 : percent}%` }} />
+    </div>
+  );
+}
+
 /**
  * Photos into storage: drop them or pick them (a phone offers its camera through the same
  * picker); each goes straight to storage with its own progress bar, cancel and retry, and is
@@ -141,12 +160,7 @@ export default function PhotoUploader({ couponId, onAdded }: { couponId: number;
                   {formatBytes(item.file.size)} · <span role="status">{STATUS_TEXT[item.status]}</span>
                 </span>
               </div>
-              <progress
-                className="mt-2 h-2 w-full accent-oxide-700"
-                max={100}
-                value={item.status === 'measuring' ? undefined : Math.round(item.progress * 100)}
-                aria-label={`Upload of ${item.file.name}`}
-              />
+              {item.status !== 'failed' && item.status !== 'cancelled' && <Bar item={item} />}
               {item.message && <p className="field-error mt-1">{item.message}</p>}
               <div className="mt-2 flex gap-2">
                 {(item.status === 'sending' || item.status === 'queued') && (
@@ -154,7 +168,7 @@ export default function PhotoUploader({ couponId, onAdded }: { couponId: number;
                     Cancel
                   </button>
                 )}
-                {(item.status === 'failed' || item.status === 'cancelled') && (
+                {(item.status === 'failed' || item.status === 'cancelled') && !refusal(item.file) && (
                   <button type="button" className="btn min-h-9 px-3 py-1 text-sm" onClick={() => retry(item)}>
                     Retry
                   </button>
