@@ -83,9 +83,6 @@ export const couponInputSchema = z
 export type CouponInput = z.input<typeof couponInputSchema>;
 export type Coupon = z.output<typeof couponInputSchema>;
 
-/** NIST SP 811, appendix B: t/°C = (t/°F − 32) / 1.8. */
-export const fahrenheitToCelsius = (fahrenheit: number) => ((fahrenheit - 32) * 5) / 9;
-export const celsiusToFahrenheit = (celsius: number) => (celsius * 9) / 5 + 32;
 
 /** "540 °C · 30 min" or "25 V": the heat in a few words. */
 export function describeHeat(coupon: Pick<Coupon, 'process' | 'temperatureC' | 'holdSeconds' | 'volts'>): string {

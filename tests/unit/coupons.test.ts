@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { celsiusToFahrenheit, couponInputSchema, describeHeat, fahrenheitToCelsius } from '../../src/lib/coupons';
+import { couponInputSchema, describeHeat } from '../../src/lib/coupons';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../src/lib/units';
 import { emptyForm, fieldOf, payloadOf, switchUnit, type FormState } from '../../src/components/coupons/coupon-form-state';
 
 const valid: FormState = {

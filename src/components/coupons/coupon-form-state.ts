@@ -1,8 +1,5 @@
-import {
-  celsiusToFahrenheit,
-  fahrenheitToCelsius,
-  type CouponInput,
-} from '../../lib/coupons';
+import type { CouponInput } from '../../lib/coupons';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/units';
 
 /** What the coupon form holds while typing: numbers as typed text, the temperature in the chosen unit. */
 export interface FormState {

@@ -1,4 +1,4 @@
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/tint/growth';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/units';
 import type { TemperatureUnit } from './UnitSwitch';
 
 /** A typed temperature in °C for the API (°C = (°F − 32)·5/9, NIST SP 811); blank stays blank. */

@@ -5,11 +5,6 @@ export const GAS_CONSTANT = 8.314462618;
 
 export const celsiusToKelvin = (celsius: number) => celsius + 273.15;
 
-/** °C = (°F − 32)·5/9 (NIST SP 811, appendix B). */
-export const fahrenheitToCelsius = (fahrenheit: number) => ((fahrenheit - 32) * 5) / 9;
-
-/** °F = °C·9/5 + 32, the inverse of the above (NIST SP 811, appendix B). */
-export const celsiusToFahrenheit = (celsius: number) => (celsius * 9) / 5 + 32;
 
 /**
  * dⁿ = k(T)·t with k(T) = k₀·exp(−Q/RT): n = 2 is the parabolic law; a large n is the steep,

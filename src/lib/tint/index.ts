@@ -9,7 +9,8 @@ export { familyLabels, ladderAlloyOptions, plannerAlloyOptions, type AlloyOption
 export { ladderView, type LadderView, type LadderBand, type LadderTick, type LadderTableStep } from './ladder-view';
 export { buildLadder, colourAt, tintNameAt, MAX_THICKNESS_NM, type LadderStep } from './ladder';
 export { tintNames, type TintName } from './tint-names';
-export { heatThicknessNm, anodizeThicknessNm, fahrenheitToCelsius, celsiusToFahrenheit, type HeatGrowthLaw } from './growth';
+export { heatThicknessNm, anodizeThicknessNm, type HeatGrowthLaw } from './growth';
+export { fahrenheitToCelsius, celsiusToFahrenheit } from '../units';
 export { thicknessCandidates, type ThicknessCandidate } from './inverse';
 export { fitGrowth, FitCache, type CouponObservation, type GrowthFit } from './fit';
 export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { fahrenheitToCelsius, heatThicknessNm } from '../../../src/lib/tint/growth';
+import { heatThicknessNm } from '../../../src/lib/tint/growth';
+import { fahrenheitToCelsius } from '../../../src/lib/units';
 import { tintNameAt } from '../../../src/lib/tint/ladder';
 import { findTintModel } from '../../../src/lib/tint/models';
 import type { TintName } from '../../../src/lib/tint/tint-names';
