@@ -10,6 +10,7 @@ import { demoCoupons } from './seed-data/coupons';
 import { seedDemoPhotos } from './seed-data/photos';
 
 const DEMO_MARKER = 'demo-seeded';
+const PHOTOS_MARKER = 'demo-photos-seeded';
 
 async function seedAlloys(db: Database) {
   for (const alloy of alloyCatalogue) {
@@ -20,31 +21,33 @@ async function seedAlloys(db: Database) {
   }
 }
 
-async function seedDemo(db: Database) {
+/** People and coupons, with the marker, in one transaction: all of the demo or none of it. */
+async function seedDemoRecords(db: Database) {
   const passwordHash = await hash(demoPassword);
-  for (const person of demoPeople) {
-    await db
-      .insert(users)
-      .values({ ...person, passwordHash, emailVerified: new Date() })
-      .onDuplicateKeyUpdate({ set: { role: person.role } });
-  }
-  const people = await db.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, demoPeople.map((person) => person.email)));
-  const idByEmail = new Map(people.map((person) => [person.email, person.id]));
   const alloyRows = await db.select({ id: alloys.id, slug: alloys.slug }).from(alloys);
   const alloyIdBySlug = new Map(alloyRows.map((alloy) => [alloy.slug, alloy.id]));
-
-  const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
-  for (const demo of demoCoupons(owners)) {
-    await db.transaction(async (tx) => {
+  await db.transaction(async (tx) => {
+    for (const person of demoPeople) {
+      await tx
+        .insert(users)
+        .values({ ...person, passwordHash, emailVerified: new Date() })
+        .onDuplicateKeyUpdate({ set: { role: person.role } });
+    }
+    const people = await tx.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, demoPeople.map((person) => person.email)));
+    const idByEmail = new Map(people.map((person) => [person.email, person.id]));
+    const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
+    for (const demo of demoCoupons(owners)) {
       const [{ id }] = await tx
         .insert(coupons)
         .values({ ...demo.coupon, ownerId: idByEmail.get(demo.ownerEmail)!, layerKey: layerKeyOf(demo.layers) })
         .$returningId();
       await tx.insert(couponLayers).values(demo.layers.map((slug, position) => ({ couponId: id, position, alloyId: alloyIdBySlug.get(slug)! })));
-    });
-  }
-  console.log(`[oxbloom] demo photos: ${await seedDemoPhotos(db)} stored and measured.`);
+    }
+    await tx.insert(appSettings).values({ key: DEMO_MARKER, value: new Date().toISOString() });
+  });
 }
+
+const hasMarker = async (db: Database, key: string) => (await db.select().from(appSettings).where(eq(appSettings.key, key))).length > 0;
 
 async function main() {
   const url = process.env.DATABASE_URL;
@@ -52,13 +55,19 @@ async function main() {
   const { db, pool } = createDatabase(url, 2);
   try {
     await seedAlloys(db);
-    const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, DEMO_MARKER));
-    if (marker) return console.log('[oxbloom] demo already seeded; kept as it is.');
-    if (process.env.OXBLOOM_DEMO === '0') return console.log('[oxbloom] OXBLOOM_DEMO=0: no demo data.');
-    await seedDemo(db);
-    await db.insert(appSettings).values({ key: DEMO_MARKER, value: new Date().toISOString() });
-    const [{ count }] = await db.select({ count: sql<number>`count(*)` }).from(coupons);
-    console.log(`[oxbloom] seeded the demo: ${demoPeople.length} people, ${count} coupons.`);
+    if (!(await hasMarker(db, DEMO_MARKER))) {
+      if (process.env.OXBLOOM_DEMO === '0') return console.log('[oxbloom] OXBLOOM_DEMO=0: no demo data.');
+      await seedDemoRecords(db);
+      const [{ count }] = await db.select({ count: sql<number>`count(*)` }).from(coupons);
+      console.log(`[oxbloom] seeded the demo: ${demoPeople.length} people, ${count} coupons.`);
+    }
+    // Photos need storage too; a start that stopped half-way finishes them next time.
+    if (!(await hasMarker(db, PHOTOS_MARKER))) {
+      console.log(`[oxbloom] demo photos: ${await seedDemoPhotos(db)} stored and measured.`);
+      await db.insert(appSettings).values({ key: PHOTOS_MARKER, value: new Date().toISOString() });
+    } else {
+      console.log('[oxbloom] demo already seeded; kept as it is.');
+    }
   } finally {
     await pool.end();
   }

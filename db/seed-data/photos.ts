@@ -4,7 +4,7 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { Database } from '../client';
-import { alloys, couponLayers, coupons } from '../schema';
+import { alloys, couponLayers, coupons, photos } from '../schema';
 import type { RegionInput } from '../../src/lib/photos';
 import { analyseRegions } from '../../src/lib/server/photo-analysis';
 import { newUploadKey } from '../../src/lib/server/photo-files';
@@ -199,9 +199,15 @@ export async function seedDemoPhotos(db: Database): Promise<number> {
   const storing = new Set<Promise<void>>();
   let stored = 0;
   try {
+    // A seed that stopped half-way is finished on the next start: coupons with photos count as done.
+    const done = new Set((await db.selectDistinct({ couponId: photos.couponId }).from(photos)).map((row) => row.couponId));
     for (const coupon of await demoCoupons(db)) {
       const slot = `${coupon.ownerId}/${coupon.visibility}`;
       if ((taken.get(slot) ?? 0) >= PER_OWNER_AND_VISIBILITY) continue;
+      if (done.has(coupon.id)) {
+        taken.set(slot, (taken.get(slot) ?? 0) + 1);
+        continue;
+      }
       const thicknesses = coupon.layers.map((layer) => thicknessNm(coupon, layer.alloy));
       if (coupon.layers.length === 0 || thicknesses.some((thickness) => thickness === null || thickness < 5)) continue;
       taken.set(slot, (taken.get(slot) ?? 0) + 1);

@@ -4,7 +4,7 @@ import { PutObjectCommand, HeadObjectCommand, S3Client } from '@aws-sdk/client-s
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
-import { coupons, photos, users } from '../../db/schema';
+import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 
 const { db, pool } = testDatabase();
 afterAll(() => pool.end());
@@ -164,6 +164,24 @@ describe('changing and deleting', () => {
     expect(row.title).toBe(aCoupon.title);
   });
 
+  it('keeps a layer’s swatches when only its alloy changes, and moves them to the new alloy', async () => {
+    const coupon = await create(member);
+    const [owner] = await db.select({ id: coupons.ownerId }).from(coupons).where(eq(coupons.id, coupon.id));
+    const [layer] = await db.select().from(couponLayers).where(and(eq(couponLayers.couponId, coupon.id), eq(couponLayers.position, 0)));
+    const [{ id: photoId }] = await db
+      .insert(photos)
+      .values({ couponId: coupon.id, ownerId: owner.id, originalKey: 'k1', displayKey: 'k2', thumbKey: 'k3', contentType: 'image/jpeg', byteSize: 1, width: 10, height: 10 })
+      .$returningId();
+    await db.insert(swatches).values({ photoId, couponId: coupon.id, layerId: layer.id, alloyId: layer.alloyId, rank: 0, share: 1, spread: 0, hex: '#c8a050', labL: 68, labA: 8, labB: 45, oklabL: 0.72, oklabA: 0.02, oklabB: 0.1 });
+
+    expect((await api(`/api/coupons/${coupon.id}`, { method: 'PATCH', jar: member, json: { layers: ['ti-grade-4', 'ti-grade-5'] } })).status).toBe(200);
+    const [grade4] = await db.select().from(alloys).where(eq(alloys.slug, 'ti-grade-4'));
+    const kept = await db.select().from(swatches).where(eq(swatches.layerId, layer.id));
+    expect(kept).toHaveLength(1);
+    expect(kept[0].alloyId).toBe(grade4.id);
+    await db.delete(coupons).where(eq(coupons.id, coupon.id));
+  });
+
   it('lets an admin change anyone’s coupon', async () => {
     const coupon = await create(member2);
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'PATCH', jar: admin, json: { visibility: 'private' } })).status).toBe(200);
@@ -180,9 +198,9 @@ describe('changing and deleting', () => {
       requestChecksumCalculation: 'WHEN_REQUIRED',
       responseChecksumValidation: 'WHEN_REQUIRED',
     });
-    const keys = ['a.jpg', 'a.webp', 'a-thumb.webp'].map((name) => `users/${owner.id}/test-delete/${coupon.id}/${name}`);
+    const keys = ['a.jpg', 'a.webp', 'a-thumb.webp', 'a-analysis.png'].map((name) => `users/${owner.id}/test-delete/${coupon.id}/${name}`);
     for (const key of keys) await s3.send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET, Key: key, Body: 'x' }));
-    await db.insert(photos).values({ couponId: coupon.id, ownerId: owner.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
+    await db.insert(photos).values({ couponId: coupon.id, ownerId: owner.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], analysisKey: keys[3], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
 
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'DELETE', jar: member })).status).toBe(204);
     expect((await api(`/api/coupons/${coupon.id}`, { jar: member })).status).toBe(404);

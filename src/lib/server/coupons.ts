@@ -1,9 +1,10 @@
 import { and, asc, count, desc, eq, inArray, or, sql, type SQL } from 'drizzle-orm';
-import { alloys, couponLayers, coupons, photos, users } from '../../../db/schema';
+import { alloys, couponLayers, coupons, photos, swatches, users } from '../../../db/schema';
 import { layerKeyOf } from '../alloys';
 import type { Coupon, Visibility } from '../coupons';
 import type { SessionUser } from './authorise';
 import { db } from './db';
+import { couponPhotoFiles } from './photos';
 import { deleteObjects } from './storage';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
@@ -128,7 +129,11 @@ export async function updateCoupon(id: number, input: Coupon): Promise<void> {
     const existing = await tx.select({ id: couponLayers.id, position: couponLayers.position }).from(couponLayers).where(eq(couponLayers.couponId, id));
     for (const [position, slug] of input.layers.entries()) {
       const layer = existing.find((row) => row.position === position);
-      if (layer) await tx.update(couponLayers).set({ alloyId: ids.get(slug)! }).where(eq(couponLayers.id, layer.id));
+      if (layer) {
+        await tx.update(couponLayers).set({ alloyId: ids.get(slug)! }).where(eq(couponLayers.id, layer.id));
+        // Swatches carry their layer's alloy for the library fit and colour search.
+        await tx.update(swatches).set({ alloyId: ids.get(slug)! }).where(eq(swatches.layerId, layer.id));
+      }
       else await tx.insert(couponLayers).values({ couponId: id, position, alloyId: ids.get(slug)! });
     }
     const removed = existing.filter((row) => row.position >= input.layers.length).map((row) => row.id);
@@ -142,9 +147,9 @@ export async function setVisibility(id: number, visibility: Visibility): Promise
 
 /** Deletes a coupon (photos, regions and swatches cascade) and then its files in storage. */
 export async function deleteCoupon(id: number): Promise<void> {
-  const files = await db().select({ originalKey: photos.originalKey, displayKey: photos.displayKey, thumbKey: photos.thumbKey }).from(photos).where(eq(photos.couponId, id));
+  const files = await couponPhotoFiles(id);
   await db().delete(coupons).where(eq(coupons.id, id));
-  await deleteObjects(files.flatMap((file) => [file.originalKey, file.displayKey, file.thumbKey]));
+  await deleteObjects(files);
 }
 
 export async function photoCounts(couponIds: number[]): Promise<Map<number, number>> {
