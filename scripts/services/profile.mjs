@@ -78,5 +78,7 @@ export function appEnvironment(profile, authSecret) {
     AUTH_SECRET: authSecret,
     AUTH_TRUST_HOST: 'true',
     OXBLOOM_MAIL_DIR: profile.mailDir,
+    // The SDK is pinned to a release that supports Node 20; its notice about later releases is noise here.
+    AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
   };
 }
