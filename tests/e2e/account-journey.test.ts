@@ -1,22 +1,15 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BrowserContext } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { baseUrl } from '../support/app';
-import { launchBrowser } from '../support/browser';
+import { useBrowser } from '../support/browser';
 import { linkIn, waitForMail } from '../support/mail';
 
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(() => browser?.close());
+const browser = useBrowser();
 
 describe('a new smith in Chromium', () => {
   it('signs up, confirms by e-mail, signs out, and signs in again by an e-mailed link', async () => {
     const email = `browser-${Date.now().toString(36)}@oxbloom.test`;
-    await context.clearCookies();
-    const page = await context.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     page.setDefaultTimeout(8000);
 
     await page.goto(`${baseUrl}/sign-up`);
@@ -48,8 +41,8 @@ describe('a new smith in Chromium', () => {
   });
 
   it('signs in with a demo password and sees a clear message for a wrong one', async () => {
-    await context.clearCookies();
-    const page = await context.newPage();
+    await browser().clearCookies();
+    const page = await browser().newPage();
     page.setDefaultTimeout(8000);
     await page.goto(`${baseUrl}/sign-in`);
     const form = page.getByRole('region', { name: 'Sign in' });

@@ -1,12 +1,12 @@
 // Journey 1 in Chromium: the demo member logs a two-layer coupon, uploads a photo of it by the
 // file picker, watches the upload finish, marks a region per layer and the grey card, and sees
 // the swatches; then another member cannot open the coupon while it is private.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
+import { afterAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { converter, differenceCiede2000 } from 'culori';
 import { api, baseUrl } from '../support/app';
 import { demo, demoPassword, signedIn } from '../support/auth';
-import { launchBrowser } from '../support/browser';
+import { useBrowser } from '../support/browser';
 import { couponScene, encodeJpeg, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
 import type { Rectangle } from '../../src/lib/photos';
 
@@ -15,19 +15,13 @@ const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const deltaE = (first: string, second: string) => ciede2000(toLab65(first)!, toLab65(second)!);
 
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(() => browser?.close());
+const browser = useBrowser();
 
 /** The photo: straw over purple, a grey card beside them, under a warm (illuminant A) light. */
 const scene = couponScene(1200, 800, [TINTS.straw, TINTS.purple], { cast: illuminantACast(), noise: { sigma: 4, seed: 51 } });
 
 async function signIn(page: Page, email: string) {
-  await context.clearCookies();
+  await browser().clearCookies();
   await page.goto(`${baseUrl}/sign-in`);
   const form = page.getByRole('region', { name: 'Sign in' });
   await form.getByLabel('E-mail address').fill(email);
@@ -62,7 +56,7 @@ describe('logging a coupon with photos in Chromium', () => {
   });
 
   it('logs a two-layer coupon, uploads a photo, marks its layers and shows their swatches', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     page.setDefaultTimeout(15_000);
     await signIn(page, demo.member);
 
@@ -83,7 +77,7 @@ describe('logging a coupon with photos in Chromium', () => {
 
     // Upload by the file picker over a slow link, watching the progress bar fill; then it is added.
     const jpeg = await encodeJpeg(renderScene(scene.scene));
-    const network = await context.newCDPSession(page);
+    const network = await browser().newCDPSession(page);
     await network.send('Network.enable');
     await network.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: Math.round(jpeg.length / 3) });
     await page.getByLabel('Choose photos').setInputFiles({ name: 'laminate.jpg', mimeType: 'image/jpeg', buffer: jpeg });
@@ -137,7 +131,7 @@ describe('logging a coupon with photos in Chromium', () => {
 
   it('does not show the private coupon to another member', async () => {
     expect(couponPath).toBeDefined();
-    const page = await context.newPage();
+    const page = await browser().newPage();
     page.setDefaultTimeout(15_000);
     await signIn(page, demo.member2);
     const response = await page.goto(`${baseUrl}${couponPath}`);

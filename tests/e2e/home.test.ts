@@ -1,19 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BrowserContext } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { baseUrl } from '../support/app';
-import { launchBrowser } from '../support/browser';
+import { useBrowser } from '../support/browser';
 
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(() => browser?.close());
+const browser = useBrowser();
 
 describe('the home page in Chromium', () => {
   it('renders with our own fonts, loaded from our own host only', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     const hosts = new Set<string>();
     page.on('request', (request) => hosts.add(new URL(request.url()).host));
     await page.goto(baseUrl, { waitUntil: 'networkidle' });
@@ -39,7 +32,7 @@ describe('the home page in Chromium', () => {
   });
 
   it('reads on a phone without sideways scrolling', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await page.setViewportSize({ width: 390, height: 844 });
     await page.goto(baseUrl, { waitUntil: 'networkidle' });
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);

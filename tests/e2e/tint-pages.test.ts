@@ -1,17 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { baseUrl } from '../support/app';
-import { launchBrowser } from '../support/browser';
+import { useBrowser } from '../support/browser';
 
 // The tint ladder and the heat planner in Chromium, as a visitor (reference data).
 
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
-beforeAll(async () => {
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(() => browser?.close());
+const browser = useBrowser();
 
 /** Whether `expected` appears in `names` in the same order (other names may come between). */
 function inOrder(names: readonly string[], expected: readonly string[]): boolean {
@@ -38,7 +32,7 @@ async function predictHeat(page: Page, temperature: string, holdMinutes: string)
 
 describe('the tint ladder page', () => {
   it('draws titanium with the familiar colour order', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     const response = await page.goto(new URL('/tint-ladder?alloy=ti-grade-5', baseUrl).href);
     expect(response?.status()).toBe(200);
     const bands = await page.getByTestId('ladder-bands').locator('[data-band-name]').allTextContents();
@@ -53,15 +47,15 @@ describe('the tint ladder page', () => {
   });
 
   it('switches to warm light, and without JavaScript through the plain form', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await page.goto(new URL('/tint-ladder', baseUrl).href);
     await Promise.all([page.waitForURL(/illuminant=A/), page.getByLabel('Warm light (A)').check()]);
     await expect(page.getByRole('heading', { level: 2 }).first().textContent()).resolves.toContain('warm light');
     await page.close();
 
     // The same choice with scripts switched off: the plain GET form does it.
-    const noScript = await context.newPage();
-    const cdp = await context.newCDPSession(noScript);
+    const noScript = await browser().newPage();
+    const cdp = await browser().newCDPSession(noScript);
     await cdp.send('Emulation.setScriptExecutionDisabled', { value: true });
     await noScript.goto(new URL('/tint-ladder', baseUrl).href);
     await noScript.getByLabel('Alloy').selectOption('steel-1084');
@@ -71,7 +65,7 @@ describe('the tint ladder page', () => {
   });
 
   it('answers an unknown alloy with a message, not a failure', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     const response = await page.goto(new URL('/tint-ladder?alloy=unobtainium', baseUrl).href);
     expect(response?.status()).toBe(400);
     await expect(page.getByRole('alert').textContent()).resolves.toContain('unknown alloy');
@@ -81,7 +75,7 @@ describe('the tint ladder page', () => {
 
 describe('the heat planner page, as a visitor', () => {
   it('predicts a blue band for 1 h at 600 °C on Ti-6Al-4V, from reference data', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await openPlanner(page);
     await expect(page.getByText('Hot work can hurt').first().isVisible()).resolves.toBe(true);
     await predictHeat(page, '600', '60');
@@ -92,7 +86,7 @@ describe('the heat planner page, as a visitor', () => {
   });
 
   it('takes °F: 1112 °F is 600 °C', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await openPlanner(page);
     await page.locator('label', { hasText: '°F' }).first().click();
     await expect(page.getByRole('radio', { name: '°F' }).first().isChecked()).resolves.toBe(true);
@@ -104,7 +98,7 @@ describe('the heat planner page, as a visitor', () => {
   });
 
   it('shows the warnings of a 1000 °C heat with their sources', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await openPlanner(page);
     await predictHeat(page, '1000', '30');
     const warnings = page.getByTestId('warnings').locator('[data-warning]');
@@ -116,7 +110,7 @@ describe('the heat planner page, as a visitor', () => {
   });
 
   it('shows an error from the API beside the field it names', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await openPlanner(page);
     await predictHeat(page, '1700', '60');
     const error = page.locator('#planner-temperature-error');
@@ -127,7 +121,7 @@ describe('the heat planner page, as a visitor', () => {
   });
 
   it('suggests heats for a laminate pair', async () => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await openPlanner(page);
     await page.getByLabel('Two wanted colours').check();
     await page.getByRole('button', { name: 'Suggest heats' }).click();
@@ -140,7 +134,7 @@ describe('the heat planner page, as a visitor', () => {
 
 describe('the tint pages on a phone', () => {
   it.each(['/tint-ladder', '/heat-planner'])('%s has no sideways scroll at 390 px', async (path) => {
-    const page = await context.newPage();
+    const page = await browser().newPage();
     await page.setViewportSize({ width: 390, height: 844 });
     if (path === '/heat-planner') {
       await openPlanner(page);

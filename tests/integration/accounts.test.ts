@@ -2,11 +2,11 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import { encode } from '@auth/core/jwt';
-import { ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { api, baseUrl, newJar, type Jar } from '../support/app';
 import { demo, demoPassword, postSignIn, signedIn, csrfToken } from '../support/auth';
 import { countMail, linkIn, waitForMail } from '../support/mail';
 import { testDatabase } from '../support/database';
+import { keysUnder, putTestObject } from '../support/storage';
 import { accountTokens, alloys, couponLayers, coupons, photos, users, verificationTokens } from '../../db/schema';
 
 const { db, pool } = testDatabase();
@@ -273,18 +273,6 @@ describe('admin roles', () => {
 });
 
 describe('account deletion', () => {
-  const s3 = new S3Client({
-    endpoint: process.env.S3_ENDPOINT,
-    region: 'us-east-1',
-    forcePathStyle: true,
-    credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
-    requestChecksumCalculation: 'WHEN_REQUIRED',
-    responseChecksumValidation: 'WHEN_REQUIRED',
-  });
-  const bucket = process.env.S3_BUCKET!;
-  const keysUnder = async (prefix: string) =>
-    ((await s3.send(new ListObjectsV2Command({ Bucket: bucket, Prefix: prefix }))).Contents ?? []).map((item) => item.Key);
-
   it('needs the typed confirmation, then removes the account, its coupons and its stored photos', async () => {
     const account = await confirmedAccount();
     const prefix = `users/${account.id}/`;
@@ -295,7 +283,7 @@ describe('account deletion', () => {
       .$returningId();
     await db.insert(couponLayers).values({ couponId, position: 0, alloyId: alloy.id });
     const keys = ['original.jpg', 'display.webp', 'thumb.webp'].map((name) => `${prefix}photos/${name}`);
-    for (const key of keys) await s3.send(new PutObjectCommand({ Bucket: bucket, Key: key, Body: 'x' }));
+    for (const key of keys) await putTestObject(key);
     await db.insert(photos).values({ couponId, ownerId: account.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
 
     const refused = await api('/api/account', { method: 'DELETE', jar: account.jar, json: { confirmation: 'yes please' } });

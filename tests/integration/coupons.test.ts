@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
-import { PutObjectCommand, HeadObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { objectExists, putTestObject } from '../support/storage';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 
 const { db, pool } = testDatabase();
@@ -190,23 +190,13 @@ describe('changing and deleting', () => {
   it('deletes a coupon and its photos’ files from storage', async () => {
     const coupon = await create(member);
     const [owner] = await db.select({ id: coupons.ownerId }).from(coupons).where(eq(coupons.id, coupon.id));
-    const s3 = new S3Client({
-      endpoint: process.env.S3_ENDPOINT,
-      region: 'us-east-1',
-      forcePathStyle: true,
-      credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
-      requestChecksumCalculation: 'WHEN_REQUIRED',
-      responseChecksumValidation: 'WHEN_REQUIRED',
-    });
     const keys = ['a.jpg', 'a.webp', 'a-thumb.webp', 'a-analysis.png'].map((name) => `users/${owner.id}/test-delete/${coupon.id}/${name}`);
-    for (const key of keys) await s3.send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET, Key: key, Body: 'x' }));
+    for (const key of keys) await putTestObject(key);
     await db.insert(photos).values({ couponId: coupon.id, ownerId: owner.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], analysisKey: keys[3], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
 
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'DELETE', jar: member })).status).toBe(204);
     expect((await api(`/api/coupons/${coupon.id}`, { jar: member })).status).toBe(404);
-    for (const key of keys) {
-      await expect(s3.send(new HeadObjectCommand({ Bucket: process.env.S3_BUCKET, Key: key }))).rejects.toMatchObject({ name: 'NotFound' });
-    }
+    for (const key of keys) expect(await objectExists(key), key).toBe(false);
   });
 
   it.each(['abc', '0', '-1', '99999999'])('answers 404 for coupon id %s', async (id) => {

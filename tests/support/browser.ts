@@ -1,3 +1,4 @@
+import { afterAll, beforeAll } from 'vitest';
 import { chromium, type BrowserContext } from 'playwright-core';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -17,5 +18,18 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
       await context.close();
       rmSync(profileDir, { recursive: true, force: true });
     },
+  };
+}
+
+/** One browser for a test file: launched before its tests, closed after. Call the result for the context. */
+export function useBrowser(): () => BrowserContext {
+  let browser: Awaited<ReturnType<typeof launchBrowser>> | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(() => browser?.close());
+  return () => {
+    if (!browser) throw new Error('The browser is not running yet.');
+    return browser.context;
   };
 }

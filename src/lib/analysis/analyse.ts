@@ -2,7 +2,7 @@ import { toSwatch, type OklabPoint } from './colour';
 import { chooseCentres, FIT_SAMPLE_SIZE, samplePoints } from './choose-clusters';
 import { assignPoints } from './kmeans';
 import { collectPixels, type PixelImage } from './pixels';
-import { ANALYSIS_SEED, seededRandom } from './random';
+import { seededRandom } from '../random';
 import { AnalysisInputError, clipRegion, wholeImage } from './regions';
 import {
   AnalysisOptionsSchema,
@@ -16,6 +16,9 @@ import {
 } from './schemas';
 import { whiteBalanceMatrix } from './white-balance';
 import type { Matrix3 } from './matrix3';
+
+/** The seed every analysis starts from, so the same photo always gives the same swatches. */
+const ANALYSIS_SEED = 0x0b100d;
 
 /**
  * The colours of each region of a photo: pixels too dark or too bright are left out, the grey

@@ -162,6 +162,12 @@ export async function photoCounts(couponIds: number[]): Promise<Map<number, numb
   return new Map(rows.map((row) => [row.couponId, Number(row.photos)]));
 }
 
+/** The heat record alone, as the form and the API's input schema know it. */
+export function heatRecordOf(coupon: CouponRecord): Coupon {
+  const { layerDetails: _details, id: _id, ownerId: _owner, ownerName: _name, layerKey: _key, createdAt: _created, updatedAt: _updated, ...record } = coupon;
+  return record;
+}
+
 /** A coupon as the API answers it: no owner id, but whether the viewer may change it. */
 export function couponView(coupon: CouponRecord, viewer: Viewer) {
   const { ownerId, layerDetails, ...rest } = coupon;

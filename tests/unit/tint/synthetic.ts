@@ -1,14 +1,4 @@
-/** Seeded random numbers for synthetic coupons (the same coupons every run). */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom } from '../../../src/lib/random';
 
 /** A standard normal deviate (Box–Muller). */
 export function gaussian(random: () => number): number {

@@ -1,7 +1,6 @@
 /**
- * A small seeded pseudo-random generator (mulberry32, Tommy Ettinger, public domain), so
- * clustering picks the same starting centres for the same input every time.
- * Returns floats in [0, 1).
+ * A small seeded pseudo-random generator (mulberry32, Tommy Ettinger, public domain): the same
+ * seed gives the same numbers on every machine. Returns floats in [0, 1).
  */
 export function seededRandom(seed: number): () => number {
   let state = seed >>> 0;
@@ -13,6 +12,3 @@ export function seededRandom(seed: number): () => number {
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
 }
-
-/** The seed every analysis starts from. */
-export const ANALYSIS_SEED = 0x0b100d;

@@ -1,0 +1,30 @@
+import { HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+
+/** A direct client for the test S3 fake, for checking what the app stored or removed. */
+export const testS3 = new S3Client({
+  endpoint: process.env.S3_ENDPOINT,
+  region: 'us-east-1',
+  forcePathStyle: true,
+  credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
+  requestChecksumCalculation: 'WHEN_REQUIRED',
+  responseChecksumValidation: 'WHEN_REQUIRED',
+});
+
+const Bucket = process.env.S3_BUCKET;
+
+export const putTestObject = (key: string, body: string | Uint8Array = 'x') => testS3.send(new PutObjectCommand({ Bucket, Key: key, Body: body }));
+
+export async function keysUnder(prefix: string): Promise<string[]> {
+  const page = await testS3.send(new ListObjectsV2Command({ Bucket, Prefix: prefix }));
+  return (page.Contents ?? []).map((item) => item.Key!);
+}
+
+export async function objectExists(key: string): Promise<boolean> {
+  try {
+    await testS3.send(new HeadObjectCommand({ Bucket, Key: key }));
+    return true;
+  } catch (error) {
+    if ((error as { name?: string }).name === 'NotFound') return false;
+    throw error;
+  }
+}
