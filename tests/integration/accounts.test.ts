@@ -272,6 +272,21 @@ describe('admin roles', () => {
   });
 });
 
+describe('the people page', () => {
+  it('is shown to admins only, and refuses to demote the last admin', async () => {
+    expect((await api('/admin/users', { jar: await signedIn(demo.member) })).status).toBe(404);
+    expect((await api('/admin/users')).status).toBe(302);
+    const admin = await signedIn(demo.admin);
+    const page = await api('/admin/users', { jar: admin });
+    expect(page.status).toBe(200);
+    expect(await page.text()).toContain(demo.member2);
+    const [adminRow] = await db.select().from(users).where(eq(users.email, demo.admin));
+    const refused = await api('/admin/users', { jar: admin, form: { userId: adminRow.id, role: 'member' } });
+    expect(refused.status).toBe(400);
+    expect(await refused.text()).toContain('That is the last admin');
+  });
+});
+
 describe('account deletion', () => {
   it('needs the typed confirmation, then removes the account, its coupons and its stored photos', async () => {
     const account = await confirmedAccount();
