@@ -126,3 +126,20 @@ describe('no route answers 500 to a stranger', () => {
     expect(response.status).toBeLessThan(500);
   });
 });
+
+describe('no page answers 500 to a stranger', () => {
+  const pages = [
+    '/', '/safety', '/sign-in', '/sign-in?error=Verification&callbackUrl=//evil.example', '/sign-in/check-email', '/sign-in/problem?error=x',
+    '/sign-up', '/forgot-password', '/reset-password', '/reset-password?token=abc', '/confirm-email', '/confirm-email?token=%00%ff',
+    '/account', '/admin/users', '/coupons', '/coupons/new', '/coupons/abc', '/coupons/0', '/coupons/99999999', '/coupons/1/edit',
+    '/tint-ladder', '/tint-ladder?alloy=unobtainium&light=x', '/heat-planner',
+  ];
+  it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
+    const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });
+    expect(response.status).toBeLessThan(500);
+  });
+  it.each(pages.filter((path) => !path.includes('?')))('POST junk to %s', async (path) => {
+    const response = await api(path, { form: { intent: 'delete', token: 'x', email: 'nope', role: 'admin', userId: 'x' }, jar: { cookies: new Map(jars.member.cookies) } });
+    expect(response.status).toBeLessThan(500);
+  });
+});
