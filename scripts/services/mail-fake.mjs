@@ -16,7 +16,7 @@ const smtp = new SMTPServer({
   authOptional: true,
   disabledCommands: ['STARTTLS'],
   banner: 'Oxbloom local mail fake',
-  onData(stream, session, callback) {
+  onData(stream, _session, callback) {
     const chunks = [];
     stream.on('data', (chunk) => chunks.push(chunk));
     stream.on('end', () => {

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
+import { useEffect, useMemo, useState, type SubmitEvent, type ReactNode } from 'react';
 import {
   MAX_LAYERS,
   atmospheres,
@@ -66,7 +66,7 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
   const families = useMemo(() => [...new Set(alloys.map((alloy) => alloy.family))], [alloys]);
   const anodize = form.process === 'anodize';
 
-  async function submit(event: FormEvent) {
+  async function submit(event: SubmitEvent) {
     event.preventDefault();
     setNotice(undefined);
     const payload = payloadOf(form);

@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type SubmitEvent } from 'react';
 import type { AlloyOptionGroup } from '../../lib/tint/alloy-options';
 import type { Prediction } from '../../lib/tint/predict';
 import { AlloySelect } from './AlloySelect';
@@ -43,7 +43,7 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
     setUnit(next);
   }
 
-  async function submit(event: FormEvent) {
+  async function submit(event: SubmitEvent) {
     event.preventDefault();
     setBusy(true);
     setError(null);

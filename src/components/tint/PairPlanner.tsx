@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type SubmitEvent } from 'react';
 import type { AlloyOptionGroup } from '../../lib/tint/alloy-options';
 import type { PairSuggestion } from '../../lib/tint/plan-pair';
 import { AlloySelect } from './AlloySelect';
@@ -55,7 +55,7 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
     setUnit(next);
   }
 
-  async function submit(event: FormEvent) {
+  async function submit(event: SubmitEvent) {
     event.preventDefault();
     setBusy(true);
     setError(null);
