@@ -22,7 +22,7 @@ async function main() {
 
   const { startServices, stopServices, authSecret } = await import('./services/index.mjs');
   const { migrate, seed, build } = await import('./services/tasks.mjs');
-  const { writeFileSync, mkdirSync } = await import('node:fs');
+  const { writeFileSync, mkdirSync, rmSync } = await import('node:fs');
   mkdirSync(profile.runDir, { recursive: true });
   writeFileSync(path.join(profile.runDir, 'supervisor.pid'), String(process.pid));
 
@@ -32,6 +32,7 @@ async function main() {
     stopping = true;
     console.log('\n[oxbloom] stopping…');
     const stopped = await stopServices(profile);
+    rmSync(path.join(profile.runDir, 'supervisor.pid'), { force: true });
     console.log(`[oxbloom] stopped ${stopped.join(', ') || 'nothing'}.`);
     process.exit(code);
   };
@@ -57,6 +58,7 @@ async function main() {
     console.log(`[oxbloom] ready in ${seconds} s at ${profile.appUrl} — captured mail at http://${profile.host}:${profile.ports.inbox} — Ctrl-C to stop.`);
   } catch (error) {
     await stopServices(profile).catch(() => {});
+    rmSync(path.join(profile.runDir, 'supervisor.pid'), { force: true });
     throw error;
   }
 }

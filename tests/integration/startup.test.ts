@@ -1,12 +1,12 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { loadProfile } from '../../scripts/services/profile.mjs';
 import { startMariadb, prepareDatabase, stopMariadb } from '../../scripts/services/mariadb.mjs';
-import { readPid } from '../../scripts/services/processes.mjs';
+import { isPortFree, readPid } from '../../scripts/services/processes.mjs';
 
 const dataRoot = mkdtempSync(path.join(tmpdir(), 'oxbloom-startup-'));
 afterAll(() => rmSync(dataRoot, { recursive: true, force: true }));
@@ -92,4 +92,33 @@ describe('a migration that fails', () => {
     expect(sql('SELECT note FROM oxbloom.users WHERE id = 1;').stdout.trim()).toBe('keep me');
     await stopMariadb(profile);
   }, 90_000);
+});
+
+describe('npm start, then Ctrl-C', () => {
+  it('serves a healthy app and stops everything it started', async () => {
+    const root = mkdtempSync(path.join(tmpdir(), 'oxbloom-start-'));
+    const ports = { PORT: await freePort(), OXBLOOM_DB_PORT: await freePort(), OXBLOOM_S3_PORT: await freePort(), OXBLOOM_SMTP_PORT: await freePort(), OXBLOOM_INBOX_PORT: await freePort() };
+    const env = { ...(process.env as Record<string, string>), OXBLOOM_DATA_ROOT: root, OXBLOOM_DEMO: '0', ...Object.fromEntries(Object.entries(ports).map(([name, port]) => [name, String(port)])) };
+    // The dev server needs no build, so this stays quick; the services and the stop are the same.
+    const start = spawn(process.execPath, ['scripts/start.mjs', '--dev'], { env, stdio: ['ignore', 'pipe', 'pipe'] });
+    let output = '';
+    start.stdout.on('data', (chunk) => (output += chunk));
+    start.stderr.on('data', (chunk) => (output += chunk));
+    const exited = new Promise<number | null>((resolve) => start.on('exit', resolve));
+    try {
+      const deadline = Date.now() + 60_000;
+      while (!output.includes('[oxbloom] ready') && Date.now() < deadline && start.exitCode === null) await new Promise((resolve) => setTimeout(resolve, 200));
+      expect(output).toContain('[oxbloom] ready');
+      const health = await fetch(`http://127.0.0.1:${ports.PORT}/api/health`);
+      expect(health.status, output).toBe(200);
+      expect(await health.json()).toEqual({ status: 'ok', db: 'ok', storage: 'ok', mail: 'ok' });
+    } finally {
+      start.kill('SIGINT');
+      await exited;
+    }
+    for (const port of Object.values(ports)) expect(await isPortFree(port), `port ${port}`).toBe(true);
+    expect(readdirSync(path.join(root, '.data', 'dev', 'run')).filter((name) => name.endsWith('.pid'))).toEqual([]);
+    expect(existsSync(path.join(root, '.data', 'dev', 'mariadb', 'mysql'))).toBe(true);
+    rmSync(root, { recursive: true, force: true });
+  }, 120_000);
 });
