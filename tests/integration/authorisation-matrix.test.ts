@@ -1,6 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
+import { testDatabase } from '../support/database';
+import { eq } from 'drizzle-orm';
+import { appSettings } from '../../db/schema';
 
 /**
  * Who may call what: every route × visitor, member, another member, instructor, admin, with the
@@ -87,7 +90,12 @@ beforeAll(async () => {
   jars.instructor = await signedIn(demo.instructor);
   jars.admin = await signedIn(demo.admin);
   ids.member2 = ((await (await api('/api/account', { jar: jars.member2 })).json()) as { id: string }).id;
-  const mine = ((await (await api('/api/coupons?mine=1&limit=100', { jar: jars.member })).json()) as { coupons: { id: number; visibility: 'private' | 'members' | 'public' }[] }).coupons;
+  // Only the demo's own coupons: other test files add and delete coupons of the member meanwhile.
+  const { db, pool } = testDatabase();
+  const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, 'demo-seeded'));
+  await pool.end();
+  const listed = ((await (await api('/api/coupons?mine=1&limit=100', { jar: jars.member })).json()) as { coupons: { id: number; createdAt: string; visibility: 'private' | 'members' | 'public' }[] }).coupons;
+  const mine = listed.filter((coupon) => new Date(coupon.createdAt) < marker.createdAt);
   const first = (visibility: 'private' | 'members' | 'public') => mine.find((coupon) => coupon.visibility === visibility)!.id;
   ids.memberCoupon = { private: first('private'), members: first('members'), public: first('public') };
   const photoOf = async (visibility: 'private' | 'members') => {
