@@ -4,6 +4,8 @@ import { layerKeyOf } from '../alloys';
 import type { Coupon, Visibility } from '../coupons';
 import type { SessionUser } from './authorise';
 import { db } from './db';
+import { problem } from './http';
+import { routeId } from './route-params';
 import { couponPhotoFiles } from './photos';
 import { deleteObjects } from './storage';
 
@@ -71,6 +73,13 @@ async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>
 
 function withLayers(row: Omit<CouponRecord, 'layers' | 'layerDetails'>, layers: CouponLayer[] = []): CouponRecord {
   return { ...row, layers: layers.map((layer) => layer.alloy), layerDetails: layers };
+}
+
+/** The coupon a route's `[id]` names, or a 404 (callers check access). */
+export async function couponFromRoute(params: Record<string, string | undefined>): Promise<CouponRecord | Response> {
+  const id = routeId(params, 'That coupon');
+  if (typeof id !== 'number') return id;
+  return (await findCoupon(id)) ?? problem(404, 'That coupon was not found.');
 }
 
 /** One coupon with its layers, whoever owns it (callers check access). */

@@ -2,19 +2,11 @@ import type { APIRoute } from 'astro';
 import { z } from 'zod';
 import { couponInputSchema } from '../../../lib/coupons';
 import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { couponView, deleteCoupon, findCoupon, heatRecordOf, updateCoupon } from '../../../lib/server/coupons';
-import { json, parseJson, parseValue, problem } from '../../../lib/server/http';
-
-const params = z.object({ id: z.coerce.number().int().positive() });
-
-async function load(context: Parameters<APIRoute>[0]) {
-  const id = parseValue(context.params, params);
-  if (!id.ok) return problem(404, 'That coupon was not found.');
-  return (await findCoupon(id.data.id)) ?? problem(404, 'That coupon was not found.');
-}
+import { couponFromRoute, couponView, deleteCoupon, findCoupon, heatRecordOf, updateCoupon } from '../../../lib/server/coupons';
+import { json, parseJson, parseValue } from '../../../lib/server/http';
 
 export const GET: APIRoute = async (context) => {
-  const coupon = await load(context);
+  const coupon = await couponFromRoute(context.params);
   if (isResponse(coupon)) return coupon;
   return checkAccess(context.locals.user, coupon, 'see', 'That coupon') ?? json(couponView(coupon, context.locals.user));
 };
@@ -23,7 +15,7 @@ export const GET: APIRoute = async (context) => {
 async function loadForChange(context: Parameters<APIRoute>[0]) {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const coupon = await load(context);
+  const coupon = await couponFromRoute(context.params);
   if (isResponse(coupon)) return coupon;
   return checkAccess(user, coupon, 'change', 'That coupon') ?? { user, coupon };
 }

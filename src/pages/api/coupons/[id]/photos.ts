@@ -1,22 +1,15 @@
 import type { APIRoute } from 'astro';
 import { attachRequestSchema } from '../../../../lib/photo-requests';
 import { checkAccess, isResponse, requireRole } from '../../../../lib/server/authorise';
-import { findCoupon } from '../../../../lib/server/coupons';
-import { json, parseJson, problem } from '../../../../lib/server/http';
+import { couponFromRoute } from '../../../../lib/server/coupons';
+import { json, parseJson } from '../../../../lib/server/http';
 import { attachPhoto } from '../../../../lib/server/photo-attach';
 import { findPhoto, photoView, photoViews } from '../../../../lib/server/photos';
 import { refusalResponse } from '../../../../lib/server/refusal';
-import { routeId } from '../../../../lib/server/route-params';
-
-async function load(params: Record<string, string | undefined>) {
-  const id = routeId(params, 'That coupon');
-  if (isResponse(id)) return id;
-  return (await findCoupon(id)) ?? problem(404, 'That coupon was not found.');
-}
 
 /** The coupon's photos with regions and swatches, for anyone who may see the coupon. */
 export const GET: APIRoute = async (context) => {
-  const coupon = await load(context.params);
+  const coupon = await couponFromRoute(context.params);
   if (isResponse(coupon)) return coupon;
   return checkAccess(context.locals.user, coupon, 'see', 'That coupon') ?? json({ photos: await photoViews(coupon.id) });
 };
@@ -25,7 +18,7 @@ export const GET: APIRoute = async (context) => {
 export const POST: APIRoute = async (context) => {
   const user = await requireRole(context, 'member');
   if (isResponse(user)) return user;
-  const coupon = await load(context.params);
+  const coupon = await couponFromRoute(context.params);
   if (isResponse(coupon)) return coupon;
   const denied = checkAccess(user, coupon, 'change', 'That coupon');
   if (denied) return denied;
