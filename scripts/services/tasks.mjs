@@ -22,7 +22,7 @@ function runStep(args, env, what) {
 }
 
 export const migrate = (env) => runStep([tsx, 'scripts/migrate.ts'], env, 'Applying the database migrations');
-export const seed = (env) => runStep([tsx, 'db/seed.ts'], env, 'Seeding the database');
+export const seed = (env) => runStep([tsx, 'scripts/seed/seed.ts'], env, 'Seeding the database');
 
 function newestChange(entry) {
   if (!existsSync(entry)) return 0;

@@ -3,7 +3,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { and, asc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { appSettings, couponLayers, coupons, photos, regions, swatches, users } from '../../db/schema';
-import { demoPeople } from '../../db/seed-data/people';
+import { demoPeople } from '../../scripts/seed/people';
 import { objectSize, s3 } from '../../src/lib/server/storage';
 import { testDatabase } from '../support/database';
 

@@ -4,7 +4,7 @@ import { verify } from '@node-rs/argon2';
 import { eq, inArray, lt, sql } from 'drizzle-orm';
 import { testDatabase } from '../support/database';
 import { alloys, appSettings, couponLayers, coupons, users } from '../../db/schema';
-import { demoPassword, demoPeople } from '../../db/seed-data/people';
+import { demoPassword, demoPeople } from '../../scripts/seed/people';
 import { alloyCatalogue } from '../../src/lib/alloys';
 
 const { db, pool } = testDatabase();
@@ -61,7 +61,7 @@ describe('the demo seed', () => {
       alloys: await countOf(alloys),
     });
     const before = await demoRows();
-    const run = spawnSync(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'db/seed.ts'], { encoding: 'utf8', env: process.env });
+    const run = spawnSync(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'scripts/seed/seed.ts'], { encoding: 'utf8', env: process.env });
     expect(run.status, run.stderr).toBe(0);
     expect(run.stdout).toContain('demo already seeded');
     expect(await demoRows()).toEqual(before);

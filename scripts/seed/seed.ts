@@ -2,12 +2,12 @@
 // OXBLOOM_DEMO=0). Run with DATABASE_URL set; `npm start` and `npm test` do it for you.
 import { hash } from '@node-rs/argon2';
 import { eq, inArray, sql } from 'drizzle-orm';
-import { createDatabase, type Database } from './client';
-import { alloys, appSettings, couponLayers, coupons, users } from './schema';
-import { alloyCatalogue, layerKeyOf } from '../src/lib/alloys';
-import { demoPassword, demoPeople } from './seed-data/people';
-import { demoCoupons } from './seed-data/coupons';
-import { seedDemoPhotos } from './seed-data/photos';
+import { createDatabase, type Database } from '../../db/client';
+import { alloys, appSettings, couponLayers, coupons, users } from '../../db/schema';
+import { alloyCatalogue, layerKeyOf } from '../../src/lib/alloys';
+import { demoPassword, demoPeople } from './people';
+import { demoCoupons } from './coupons';
+import { seedDemoPhotos } from './photos';
 
 const DEMO_MARKER = 'demo-seeded';
 const PHOTOS_MARKER = 'demo-photos-seeded';

@@ -1,4 +1,4 @@
-import type { Role } from '../schema';
+import type { Role } from '../../db/schema';
 
 /** The invented demo scenario: a teaching forge, its instructor and a handful of members. */
 export const demoPassword = 'oxbloom-demo';

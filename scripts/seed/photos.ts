@@ -3,8 +3,8 @@
 // noise; stored in S3 like an upload and measured with a region per layer and the grey card.
 import { asc, eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { Database } from '../client';
-import { alloys, couponLayers, coupons, photos } from '../schema';
+import type { Database } from '../../db/client';
+import { alloys, couponLayers, coupons, photos } from '../../db/schema';
 import type { RegionInput } from '../../src/lib/photos';
 import { analyseRegions } from '../../src/lib/server/photo-analysis';
 import { newUploadKey } from '../../src/lib/server/photo-files';

@@ -1,4 +1,4 @@
-import type { coupons } from '../schema';
+import type { coupons } from '../../db/schema';
 import { findAlloy } from '../../src/lib/alloys';
 import { seededRandom } from './random';
 
