@@ -1,5 +1,5 @@
 import { int, mysqlEnum, mysqlTable, varchar, text } from 'drizzle-orm/mysql-core';
-import { alloyFamilies } from '../../src/lib/alloys';
+import { alloyFamilies } from './enums';
 import { timestamps } from './columns';
 
 /** The alloy catalogue: designations are the standard names (UNS where one exists). */

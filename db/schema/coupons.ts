@@ -12,10 +12,7 @@ import {
 import { timestamps } from './columns';
 import { users } from './users';
 import { alloys } from './alloys';
-import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from '../../src/lib/coupons';
-
-export { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities };
-export type { Visibility } from '../../src/lib/coupons';
+import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from './enums';
 
 /**
  * One test coupon and its heat record. Temperatures in °C, times in seconds, flow in L/min.

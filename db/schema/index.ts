@@ -1,3 +1,4 @@
+export * from './enums';
 export * from './columns';
 export * from './users';
 export * from './alloys';

@@ -2,7 +2,9 @@
  * The alloy catalogue. Designations are the standard names and UNS numbers (ASTM E527 / SAE J1086
  * Unified Numbering System); 15N20 has no UNS number of its own.
  */
-export const alloyFamilies = ['titanium', 'carbon-steel', 'stainless-steel', 'copper', 'bronze', 'brass', 'zirconium', 'niobium'] as const;
+import { alloyFamilies } from '../../db/schema/enums';
+
+export { alloyFamilies };
 export type AlloyFamily = (typeof alloyFamilies)[number];
 
 export interface CatalogueAlloy {

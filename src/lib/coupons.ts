@@ -1,14 +1,10 @@
 import * as z from 'zod/mini';
+import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from '../../db/schema/enums';
 import { alloySlugs } from './alloys';
 
 /** The heat record of a coupon: vocabularies, labels, and the one schema forms and routes share. */
 
-export const visibilities = ['private', 'members', 'public'] as const;
-export const surfacePreparations = ['ground', 'blasted', 'etched', 'polished', 'as-forged', 'other'] as const;
-export const processes = ['oven', 'forge', 'torch', 'induction', 'anodize'] as const;
-export const temperatureMethods = ['thermocouple', 'pyrometer', 'oven-setpoint', 'estimated'] as const;
-export const atmospheres = ['air', 'argon', 'other'] as const;
-export const coolings = ['still-air', 'forced-air', 'water-quench', 'oil-quench', 'in-furnace', 'in-can', 'other'] as const;
+export { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities };
 
 export type Visibility = (typeof visibilities)[number];
 export type Process = (typeof processes)[number];
