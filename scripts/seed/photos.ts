@@ -2,7 +2,6 @@
 // plate of its layers' heat tints beside a grey card, under a slightly warm light, with sensor
 // noise; stored in S3 like an upload and measured with a region per layer and the grey card.
 import { asc, eq, inArray } from 'drizzle-orm';
-import sharp from 'sharp';
 import type { Database } from '../../db/client';
 import { alloys, couponLayers, coupons, photos } from '../../db/schema';
 import type { RegionInput } from '../../src/lib/photos';
@@ -13,6 +12,7 @@ import { processPhotoInTurn, writeDerivedFiles } from '../../src/lib/server/phot
 import { putObject, s3 } from '../../src/lib/server/storage';
 import { anodizeThicknessNm, colourAt, findTintModel, heatThicknessNm, MAX_THICKNESS_NM } from '../../src/lib/tint';
 import { seededRandom } from './random';
+import { encodeJpeg, GREY_CARD, renderScene, type Patch } from './synthetic-photos';
 
 const WIDTH = 1200;
 const HEIGHT = 800;
@@ -20,7 +20,8 @@ const HEIGHT = 800;
 const PER_OWNER_AND_VISIBILITY = 2;
 /** A purge of argon keeps the film far thinner than air would (an invented factor, for the demo). */
 const ARGON_FACTOR = 0.12;
-const GREY_CARD = { r: 118, g: 118, b: 118 }; // 18 % reflectance: linear 0.18 in sRGB
+const BACKGROUND = '#2e2c2a';
+const NOISE_SIGMA = 3.5;
 
 /**
  * How much faster (> 1) or slower each alloy's film grows than its model says: invented for the
@@ -67,31 +68,7 @@ function thicknessNm(coupon: DemoCoupon, alloy: string): number | null {
   return Math.min(grown, MAX_THICKNESS_NM);
 }
 
-const toLinear = (value: number) => (value <= 0.04045 ? value / 12.92 : ((value + 0.055) / 1.055) ** 2.4);
-const toEncoded = (value: number) => (value <= 0.0031308 ? value * 12.92 : 1.055 * value ** (1 / 2.4) - 0.055);
-const channels = (hex: string) => [1, 3, 5].map((start) => parseInt(hex.slice(start, start + 2), 16));
-
-/** An sRGB colour as a camera under a light of linear-channel gains `cast` records it. */
-function underLight(rgb: number[], cast: number[]): number[] {
-  return rgb.map((value, channel) => Math.round(Math.min(1, toEncoded(toLinear(value / 255) * cast[channel])) * 255));
-}
-
-const NOISE_TABLE_SIZE = 1 << 16;
-const NOISE_SIGMA = 3.5;
-
-/** Gaussian noise values (Box–Muller) of NOISE_SIGMA 8-bit steps, drawn once per scene. */
-function noiseTable(random: Random): Float32Array {
-  const table = new Float32Array(NOISE_TABLE_SIZE);
-  for (let i = 0; i < NOISE_TABLE_SIZE; i += 2) {
-    const radius = Math.sqrt(-2 * Math.log(1 - random.next())) * NOISE_SIGMA;
-    const angle = 2 * Math.PI * random.next();
-    table[i] = radius * Math.cos(angle);
-    table[i + 1] = radius * Math.sin(angle);
-  }
-  return table;
-}
-
-interface Scene {
+interface DemoPhoto {
   jpeg: Buffer;
   regions: RegionInput[];
 }
@@ -100,45 +77,34 @@ interface Scene {
  * Draws the coupon: a plate with its layers as stripes (a laminate alternates them, as in a
  * billet's cross-section), the film a little thicker towards one end, a grey card to its right.
  */
-export async function drawScene(coupon: DemoCoupon, thicknesses: number[], random: Random): Promise<Scene> {
+export async function drawScene(coupon: DemoCoupon, thicknesses: number[], random: Random): Promise<DemoPhoto> {
   const warmth = random.between(0, 1);
-  const cast = [1, 1 - 0.07 * warmth, 1 - 0.22 * warmth];
+  const cast = [1, 1 - 0.07 * warmth, 1 - 0.22 * warmth] as const;
   const plate = { x: 90, y: 150, width: 720, height: 500 };
   const grey = { x: 880, y: 200, width: 230, height: 400 };
   const stripes = coupon.layers.length === 1 ? 1 : coupon.layers.length * 3;
   const stripeHeight = Math.floor(plate.height / stripes);
   const columns = 12;
+  const columnWidth = plate.width / columns;
   // Each layer's colour across the plate, from 3 % thinner to 3 % thicker film.
   const shades = coupon.layers.map((layer, index) =>
     Array.from({ length: columns }, (_, column) => {
       const optics = findTintModel(layer.alloy)!.optics!;
-      return underLight(channels(colourAt(optics, thicknesses[index] * (0.97 + (0.06 * column) / (columns - 1))).hex), cast);
+      return colourAt(optics, thicknesses[index] * (0.97 + (0.06 * column) / (columns - 1))).hex;
     }),
   );
-  const background = underLight([46, 44, 42], cast);
-  const card = underLight([GREY_CARD.r, GREY_CARD.g, GREY_CARD.b], cast);
-  const data = new Uint8Array(WIDTH * HEIGHT * 3);
-  const noise = noiseTable(random);
-  for (let y = 0; y < HEIGHT; y += 1) {
-    // Sensor noise: each row reads the table from its own random start.
-    let draw = Math.floor(random.next() * NOISE_TABLE_SIZE);
-    for (let x = 0; x < WIDTH; x += 1) {
-      let rgb = background;
-      if (x >= plate.x && x < plate.x + plate.width && y >= plate.y && y < plate.y + plate.height) {
-        const stripe = Math.min(stripes - 1, Math.floor((y - plate.y) / stripeHeight));
-        const column = Math.min(columns - 1, Math.floor(((x - plate.x) / plate.width) * columns));
-        rgb = shades[stripe % coupon.layers.length][column];
-      } else if (x >= grey.x && x < grey.x + grey.width && y >= grey.y && y < grey.y + grey.height) {
-        rgb = card;
-      }
-      const offset = (y * WIDTH + x) * 3;
-      for (let channel = 0; channel < 3; channel += 1) {
-        draw = (draw + 1) & (NOISE_TABLE_SIZE - 1);
-        data[offset + channel] = Math.max(0, Math.min(255, Math.round(rgb[channel] + noise[draw])));
-      }
+  const patches: Patch[] = [];
+  for (let stripe = 0; stripe < stripes; stripe += 1) {
+    const y = plate.y + stripe * stripeHeight;
+    // The last stripe takes the rows the division left over.
+    const height = stripe === stripes - 1 ? plate.y + plate.height - y : stripeHeight;
+    for (let column = 0; column < columns; column += 1) {
+      patches.push({ region: { x: plate.x + column * columnWidth, y, width: columnWidth, height }, colour: shades[stripe % coupon.layers.length][column] });
     }
   }
-  const jpeg = await sharp(data, { raw: { width: WIDTH, height: HEIGHT, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+  patches.push({ region: grey, colour: GREY_CARD });
+  const image = renderScene({ width: WIDTH, height: HEIGHT, background: BACKGROUND, patches, cast, noise: { sigma: NOISE_SIGMA, random: random.next, sampling: 'row' } });
+  const jpeg = await encodeJpeg(image, 90);
   const inset = 24;
   const regions: RegionInput[] = coupon.layers.map((layer, index) => ({
     kind: 'layer',
@@ -176,7 +142,7 @@ async function demoCoupons(db: Database): Promise<DemoCoupon[]> {
 }
 
 /** One photo stored and measured as if uploaded and attached with its regions. */
-async function storeDemoPhoto(db: Database, coupon: DemoCoupon, scene: Scene): Promise<void> {
+async function storeDemoPhoto(db: Database, coupon: DemoCoupon, scene: DemoPhoto): Promise<void> {
   const key = newUploadKey(coupon.ownerId, 'image/jpeg');
   await putObject(key, scene.jpeg, 'image/jpeg');
   const processed = await processPhotoInTurn(scene.jpeg);
