@@ -6,23 +6,16 @@ import { buildLadder, colourAt } from '../../src/lib/tint/ladder';
 import { findTintModel } from '../../src/lib/tint/models';
 import { planPair } from '../../src/lib/tint/plan-pair';
 import { predictTint } from '../../src/lib/tint/predict';
+import { seededRandom } from '../../src/lib/random';
 import { ms, printTable, time, type Row } from './report';
 
 const titanium = findTintModel('ti-grade-5')!;
 const steel = findTintModel('steel-1084')!;
 
-/** Deterministic pseudo-random numbers so every run fits the same coupons. */
-function seeded(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
-    return state / 4294967296;
-  };
-}
-
 /** 10 000 synthetic Ti-6Al-4V coupons: half with a measured thickness, half with only a swatch colour. */
 function syntheticCoupons(count: number): CouponObservation[] {
-  const random = seeded(42);
+  // Seeded, so every run fits the same coupons.
+  const random = seededRandom(42);
   return Array.from({ length: count }, (_, i) => {
     const temperatureC = 450 + random() * 200;
     const holdMinutes = 5 + random() * 115;

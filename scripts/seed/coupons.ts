@@ -1,6 +1,6 @@
 import type { coupons } from '../../db/schema';
 import { findAlloy } from '../../src/lib/alloys';
-import { seededRandom } from './random';
+import { seededChoices } from './random';
 
 type NewCoupon = Omit<typeof coupons.$inferInsert, 'ownerId' | 'layerKey'>;
 
@@ -47,7 +47,7 @@ const notes = [
 
 /** About two hundred coupons spread over every owner, every visibility and every family. */
 export function demoCoupons(ownerEmails: string[], count = 200): DemoCoupon[] {
-  const random = seededRandom(20261201);
+  const random = seededChoices(20261201);
   const result: DemoCoupon[] = [];
   for (let index = 0; index < count; index += 1) {
     const recipe = recipes[index % recipes.length];

@@ -11,7 +11,7 @@ import { insertPhoto, layerAlloys, photoTransaction, writeRegions } from '../../
 import { processPhotoInTurn, writeDerivedFiles } from '../../src/lib/server/photo-store';
 import { putObject, s3 } from '../../src/lib/server/storage';
 import { anodizeThicknessNm, colourAt, findTintModel, heatThicknessNm, MAX_THICKNESS_NM } from '../../src/lib/tint';
-import { seededRandom } from './random';
+import { seededChoices } from './random';
 import { encodeJpeg, GREY_CARD, renderScene, type Patch } from './synthetic-photos';
 
 const WIDTH = 1200;
@@ -55,7 +55,7 @@ export interface DemoCoupon {
   layers: { id: number; alloy: string }[];
 }
 
-type Random = ReturnType<typeof seededRandom>;
+type Random = ReturnType<typeof seededChoices>;
 
 /** The oxide thickness the coupon's heat gives an alloy under its model, or null when the model cannot say. */
 function thicknessNm(coupon: DemoCoupon, alloy: string): number | null {
@@ -159,7 +159,7 @@ async function storeDemoPhoto(db: Database, coupon: DemoCoupon, scene: DemoPhoto
  * layers all have a tint model for their process. Returns how many photos were stored.
  */
 export async function seedDemoPhotos(db: Database): Promise<number> {
-  const random = seededRandom(20261202);
+  const random = seededChoices(20261202);
   const taken = new Map<string, number>();
   // Scenes are drawn in order (the random draws stay the same); two are stored at a time.
   const storing = new Set<Promise<void>>();
