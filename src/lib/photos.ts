@@ -44,7 +44,30 @@ export function declaredContentType(file: { name: string; type: string }): strin
 
 export const isPhotoContentType = (type: string): type is PhotoContentType => type in PHOTO_TYPES;
 
-/** What POST /api/uploads answers: PUT the file's bytes to `url` with `headers` before `expiresAt`. */
+const KIND_NAMES: Record<PhotoContentType, string> = {
+  'image/jpeg': 'JPEG',
+  'image/png': 'PNG',
+  'image/webp': 'WebP',
+  'image/heic': 'HEIC',
+  'image/heif': 'HEIF',
+};
+
+/** True when two content types name the same kind of image: HEIC is HEIF coded with HEVC, and phones and browsers label it either way. */
+export function sameImageKind(first: PhotoContentType, second: PhotoContentType): boolean {
+  const kind = (type: PhotoContentType) => (type === 'image/heif' ? 'image/heic' : type);
+  return kind(first) === kind(second);
+}
+
+/** Why a file is refused whose content, as decoded, is another kind of image than the one declared. */
+export function kindMismatchMessage(decoded: PhotoContentType, declared: PhotoContentType): string {
+  return `This file is a ${KIND_NAMES[decoded]} image, but it was declared as ${KIND_NAMES[declared]}. Give it the right file name (.${PHOTO_TYPES[decoded]}) and upload it again.`;
+}
+
+/**
+ * What POST /api/uploads answers: PUT the file's bytes to `url` with exactly `headers` before
+ * `expiresAt`. The URL is signed for the declared content type and size (the client's own
+ * Content-Length must equal the size declared), so storage refuses any other.
+ */
 export interface UploadTicket {
   key: string;
   url: string;

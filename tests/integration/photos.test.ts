@@ -15,10 +15,11 @@ import type { PhotoView, RegionInput, SwatchView } from '../../src/lib/photos';
 import { db as appDb } from '../../src/lib/server/db';
 import { analysePhoto } from '../../src/lib/server/image';
 import { getObject, objectSize, s3 } from '../../src/lib/server/storage';
+import { STALE_AFTER_MINUTES } from '../../src/lib/server/uploads';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
-import { deleteTestCoupons, insertCoupon, storedPhoto, uploadPhoto, type TestCoupon } from '../support/photos';
+import { deleteTestCoupons, insertCoupon, storedPhoto, uploadPhoto, urlExpiry, type TestCoupon } from '../support/photos';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/analysis/colour-references.test.ts).
@@ -239,21 +240,37 @@ describe('who may see and change photos', () => {
 });
 
 describe('deleting a photo', () => {
-  it('removes its row, regions, swatches and every file, and keeps no ledger entry', async () => {
+  const files = (row: typeof photos.$inferSelect) => [row.originalKey, row.displayKey, row.thumbKey, row.analysisKey!];
+
+  it('removes its row, regions, swatches and every file; a stale ledger entry stays while its upload URL could be used', async () => {
     const target = await coupon('member', 'members');
-    const photo = await storedPhoto(jars.member, target.id, warmJpeg, { regions: layerRegions(target) });
+    const { ticket, response: attached } = await uploadPhoto(jars.member, target.id, warmJpeg, { regions: layerRegions(target) });
+    const photo: PhotoView = await attached.json();
     const [row] = await db.select().from(photos).where(eq(photos.id, photo.id));
-    const keys = [row.originalKey, row.displayKey, row.thumbKey, row.analysisKey!];
-    for (const key of keys) expect(await objectSize(key)).toBeGreaterThan(0);
+    for (const key of files(row)) expect(await objectSize(key)).toBeGreaterThan(0);
 
     const response = await api(`/api/photos/${photo.id}`, { jar: jars.member, method: 'DELETE' });
     expect(response.status).toBe(204);
-    for (const key of keys) expect(await objectSize(key)).toBeUndefined();
+    for (const key of files(row)) expect(await objectSize(key)).toBeUndefined();
     expect(await db.select().from(photos).where(eq(photos.id, photo.id))).toHaveLength(0);
     expect(await db.select().from(regions).where(eq(regions.photoId, photo.id))).toHaveLength(0);
     expect(await db.select().from(swatches).where(eq(swatches.photoId, photo.id))).toHaveLength(0);
-    expect(await db.select().from(uploads).where(eq(uploads.key, row.originalKey))).toHaveLength(0);
+    // The upload URL still works for a few minutes: a file sent to it now would have no row, so a
+    // stale entry stays for the sweep (it can't be attached again) until the URL has expired.
+    expect(Date.now()).toBeLessThan(urlExpiry(ticket));
+    const [entry] = await db.select().from(uploads).where(eq(uploads.key, row.originalKey));
+    expect(entry.expiresAt.getTime()).toBeLessThan(Date.now() - STALE_AFTER_MINUTES * 60_000);
     expect((await api(`/api/photos/${photo.id}`, { jar: jars.member, method: 'DELETE' })).status).toBe(404);
+  });
+
+  it('keeps no ledger entry for a photo whose upload URL expired long ago', async () => {
+    const target = await coupon('member', 'private');
+    const photo = await storedPhoto(jars.member, target.id, warmJpeg);
+    await db.update(photos).set({ createdAt: new Date(Date.now() - 60 * 60_000) }).where(eq(photos.id, photo.id));
+    const [row] = await db.select().from(photos).where(eq(photos.id, photo.id));
+    expect((await api(`/api/photos/${photo.id}`, { jar: jars.member, method: 'DELETE' })).status).toBe(204);
+    for (const key of files(row)) expect(await objectSize(key)).toBeUndefined();
+    expect(await db.select().from(uploads).where(eq(uploads.key, row.originalKey))).toHaveLength(0);
   });
 
   it('goes with its layer’s regions when the coupon loses that layer', async () => {

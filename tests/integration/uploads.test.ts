@@ -7,15 +7,17 @@ import { eq, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { photos, uploads } from '../../db/schema';
 import { TOO_BIG, UNACCEPTED_TYPE } from '../../src/lib/photo-requests';
-import { MAX_UPLOAD_BYTES } from '../../src/lib/photos';
+import { MAX_UPLOAD_BYTES, type UploadTicket } from '../../src/lib/photos';
 import { db as appDb } from '../../src/lib/server/db';
 import { objectSize, putObject, s3 } from '../../src/lib/server/storage';
 import { STALE_AFTER_MINUTES, sweepIfDue, sweepStaleUploads } from '../../src/lib/server/uploads';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
-import { attach, deleteTestCoupons, insertCoupon, presign, putToStorage, requestUpload, storedPhoto, uploadPhoto, userIdOf, type TestCoupon } from '../support/photos';
-import { couponScene, encodeJpeg, renderScene, TINTS } from '../fixtures/synthetic-photos';
+import { attach, deleteTestCoupons, insertCoupon, presign, putToStorage, requestUpload, storedPhoto, uploadPhoto, urlExpiry, userIdOf, type TestCoupon } from '../support/photos';
+import { presignedSignature } from '../support/sigv4';
+import { deleteTestObjects, keysUnder } from '../support/storage';
+import { couponScene, encodeJpeg, encodePng, renderScene, TINTS } from '../fixtures/synthetic-photos';
 
 const { db, pool } = testDatabase();
 let member: Jar;
@@ -41,6 +43,16 @@ afterAll(async () => {
 
 const photoCount = async () => Number((await db.select({ count: sql<number>`count(*)` }).from(photos).where(eq(photos.couponId, coupon.id)))[0].count);
 const entry = async (key: string) => (await db.select().from(uploads).where(eq(uploads.key, key)))[0];
+
+/**
+ * A refused upload is over: it can no longer be attached (so it no longer counts as open), but
+ * its entry stays for the sweep, in case a file is sent to its URL again.
+ */
+async function expectRetired(ticket: UploadTicket) {
+  expect(await entry(ticket.key)).toBeDefined();
+  const again = await attach(member, coupon.id, { key: ticket.key });
+  expect(again.status).toBe(410);
+}
 
 describe('asking for an upload URL', () => {
   it('gives a presigned PUT under the caller’s own prefix, valid for 10 minutes, and records it', async () => {
@@ -160,6 +172,7 @@ describe('files that are not usable photos are refused at attach, and deleted', 
     expect(await response.json()).toEqual({ error: message, field: 'key' });
     expect(await photoCount()).toBe(before);
     expect(await objectSize(ticket.key)).toBeUndefined();
+    await expectRetired(ticket);
   });
 
   it('a file larger than 30 MB, whatever size was declared', async () => {
@@ -169,6 +182,7 @@ describe('files that are not usable photos are refused at attach, and deleted', 
     expect(response.status).toBe(413);
     expect((await response.json()).error).toBe(TOO_BIG);
     expect(await objectSize(ticket.key)).toBeUndefined();
+    await expectRetired(ticket);
   });
 });
 
@@ -246,7 +260,12 @@ describe('coupons that are not the caller’s', () => {
 });
 
 describe('the sweep of stale uploads', () => {
-  const age = (key: string, minutes: number) => db.update(uploads).set({ expiresAt: new Date(Date.now() - minutes * 60_000) }).where(eq(uploads.key, key));
+  /** An entry whose URL expired `minutes` ago, and so was issued 10 minutes before that. */
+  const age = (key: string, minutes: number) =>
+    db
+      .update(uploads)
+      .set({ expiresAt: new Date(Date.now() - minutes * 60_000), createdAt: new Date(Date.now() - (minutes + 10) * 60_000) })
+      .where(eq(uploads.key, key));
 
   it('deletes the files of uploads never attached once stale, and leaves fresh ones and attached photos alone', async () => {
     const stale = await presign(member, 'stale.jpg', 'image/jpeg', jpeg.length);
@@ -279,10 +298,172 @@ describe('the sweep of stale uploads', () => {
     expect((await attach(member, coupon.id, { key: slow.key })).status).toBe(201);
   });
 
+  it('sweeps a file sent again to the URL of a refused upload, and keeps the entry until that URL has expired', async () => {
+    const ticket = await presign(member, 'coupon.jpg', 'image/jpeg', 100);
+    await putToStorage(ticket, new Uint8Array(100));
+    expect((await attach(member, coupon.id, { key: ticket.key })).status).toBe(422);
+    expect(await objectSize(ticket.key)).toBeUndefined();
+    // The URL still works (and S3 would take the same size and type again).
+    await putToStorage(ticket, new Uint8Array(100));
+    await sweepStaleUploads();
+    expect(await objectSize(ticket.key)).toBeUndefined();
+    expect(await entry(ticket.key)).toBeDefined();
+    // Once the URL has expired nothing more can arrive: the entry goes.
+    await db.update(uploads).set({ createdAt: new Date(urlExpiry(ticket) - 3 * 60 * 60_000) }).where(eq(uploads.key, ticket.key));
+    await sweepStaleUploads();
+    expect(await entry(ticket.key)).toBeUndefined();
+  });
+
   it('runs in one process per period however many try at once', async () => {
     await db.execute(sql`update app_settings set value = '1970-01-01T00:00:00.000Z' where setting_key = 'uploads-swept-at'`);
     const runs = await Promise.all([sweepIfDue(), sweepIfDue(), sweepIfDue()]);
     expect(runs.filter((run) => run !== null)).toHaveLength(1);
     expect(await sweepIfDue()).toBeNull();
+  });
+});
+
+/** PUTs bytes to a presigned URL with these headers instead of the ticket's (the S3 fake checks no signature). */
+async function putAnyway(ticket: UploadTicket, bytes: Uint8Array, headers: Record<string, string>) {
+  const response = await fetch(ticket.url, { method: 'PUT', headers, body: new Uint8Array(bytes) });
+  expect(response.status).toBe(200);
+}
+
+describe('an upload URL binds the declared type and size', () => {
+  // The S3 fake (s3rver) accepts any PUT to a presigned URL without checking its signature; real
+  // S3 refuses a request whose signed headers differ. So these tests check what the app signs,
+  // and that attaching refuses and removes whatever does not match what was declared.
+  const secret = process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER';
+
+  it('signs content-type and content-length as declared, and the signature holds for nothing else', async () => {
+    const ticket = await presign(member, 'coupon.jpg', 'IMAGE/JPEG', 123_457);
+    const url = new URL(ticket.url);
+    expect(url.searchParams.get('X-Amz-SignedHeaders')).toBe('content-length;content-type;host');
+    // The client sends exactly these headers; Content-Length is the file's own (browsers set it).
+    expect(ticket.headers).toEqual({ 'content-type': 'image/jpeg' });
+    const declared = { host: url.host, 'content-type': 'image/jpeg', 'content-length': '123457' };
+    expect(presignedSignature('PUT', url, declared, secret)).toBe(url.searchParams.get('X-Amz-Signature'));
+    for (const other of [{ 'content-type': 'text/html' }, { 'content-length': String(5 * 123_457) }, { 'content-length': '123456' }]) {
+      expect(presignedSignature('PUT', url, { ...declared, ...other }, secret)).not.toBe(url.searchParams.get('X-Amz-Signature'));
+    }
+  });
+
+  it('refuses at attach a file five times the declared size, and removes it', async () => {
+    const before = await photoCount();
+    const ticket = await presign(member, 'coupon.jpg', 'image/jpeg', jpeg.length);
+    // Still a JPEG a decoder reads: the first copy, with more bytes after it.
+    const fiveTimes = Buffer.concat([jpeg, jpeg, jpeg, jpeg, jpeg]);
+    await putAnyway(ticket, fiveTimes, ticket.headers);
+    const response = await attach(member, coupon.id, { key: ticket.key });
+    expect(response.status).toBe(422);
+    expect(await response.json()).toEqual({ error: `The file in storage has ${fiveTimes.length} bytes, not the ${jpeg.length} bytes declared. Upload the photo again.`, field: 'key' });
+    expect(await photoCount()).toBe(before);
+    expect(await objectSize(ticket.key)).toBeUndefined();
+    await expectRetired(ticket);
+  });
+
+  it('refuses at attach a file stored as text/html, and removes it', async () => {
+    const before = await photoCount();
+    const ticket = await presign(member, 'coupon.jpg', 'image/jpeg', jpeg.length);
+    await putAnyway(ticket, jpeg, { 'content-type': 'text/html' });
+    const response = await attach(member, coupon.id, { key: ticket.key });
+    expect(response.status).toBe(422);
+    expect(await response.json()).toEqual({ error: 'The file was stored as text/html, not as the image/jpeg declared. Upload the photo again.', field: 'key' });
+    expect(await photoCount()).toBe(before);
+    expect(await objectSize(ticket.key)).toBeUndefined();
+    await expectRetired(ticket);
+  });
+
+  it('refuses at attach a PNG declared as a JPEG (the decoder, not the browser, says what it is), and removes it', async () => {
+    const before = await photoCount();
+    const png = await encodePng(renderScene(couponScene(300, 200, [TINTS.blue, TINTS.straw]).scene));
+    const ticket = await presign(member, 'coupon.jpg', 'image/jpeg', png.length);
+    await putToStorage(ticket, png);
+    const response = await attach(member, coupon.id, { key: ticket.key });
+    expect(response.status).toBe(422);
+    expect(await response.json()).toEqual({ error: 'This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.', field: 'key' });
+    expect(await photoCount()).toBe(before);
+    expect(await objectSize(ticket.key)).toBeUndefined();
+    await expectRetired(ticket);
+  });
+
+  it('serves an attached original as the photo’s decoded type, even when the stored object says text/html', async () => {
+    const { ticket, response } = await uploadPhoto(member, coupon.id, jpeg);
+    expect(response.status).toBe(201);
+    const { id } = await response.json();
+    // The URL is still valid after attaching: the file is sent again with another type (S3 would refuse it; the fake does not).
+    await putAnyway(ticket, jpeg, { 'content-type': 'text/html' });
+    const exported = await (await api('/api/account/export', { jar: member })).json();
+    const photo = exported.photos.find((candidate: { id: number }) => candidate.id === id);
+    const served = await fetch(photo.originalUrl);
+    expect(served.status).toBe(200);
+    expect(served.headers.get('content-type')).toBe('image/jpeg');
+    expect(served.headers.get('content-disposition')).toMatch(/^attachment/);
+  });
+});
+
+describe('open uploads per person', () => {
+  // The limit: at most 20 uploads a person has asked for and not attached, while they are still
+  // attachable (until 30 minutes after their URL expired). A demo member no other file uploads as.
+  const LIMIT = 20;
+  const uploader = 'jory@oxbloom.test';
+  let jar: Jar;
+  let uploaderId: string;
+  const given: string[] = [];
+  const openEntries = async () => (await db.select().from(uploads).where(eq(uploads.ownerId, uploaderId))).filter((row) => row.expiresAt.getTime() > Date.now() - STALE_AFTER_MINUTES * 60_000);
+  async function ask(): Promise<Response> {
+    const response = await requestUpload(jar, { filename: 'coupon.jpg', contentType: 'image/jpeg', size: jpeg.length });
+    if (response.status === 201) given.push((await response.clone().json()).key);
+    return response;
+  }
+
+  beforeAll(async () => {
+    jar = await signedIn(uploader);
+    uploaderId = await userIdOf(db, uploader);
+  });
+
+  afterAll(async () => {
+    await db.delete(uploads).where(eq(uploads.ownerId, uploaderId));
+    const folders = new Set(given.map((key) => key.slice(0, key.lastIndexOf('/') + 1)));
+    await deleteTestObjects((await keysUnder(`users/${uploaderId}/photos/`)).filter((key) => folders.has(key.slice(0, key.lastIndexOf('/') + 1))));
+  });
+
+  it('refuses the 21st with a 429, Retry-After and a clear message; an attach or a stale entry frees a place', async () => {
+    const tickets: UploadTicket[] = [];
+    for (let index = 0; index < LIMIT; index += 1) {
+      const response = await ask();
+      expect(response.status).toBe(201);
+      tickets.push(await response.json());
+    }
+    const refused = await ask();
+    expect(refused.status).toBe(429);
+    const retryAfter = Number(refused.headers.get('retry-after'));
+    // The oldest open upload stops counting when it goes stale: its URL's 10 minutes plus 30.
+    expect(retryAfter).toBeGreaterThan(38 * 60);
+    expect(retryAfter).toBeLessThanOrEqual(40 * 60);
+    expect(await refused.json()).toEqual({
+      error: `You have ${LIMIT} uploads not yet added to a coupon. Add those photos, or try again in ${Math.ceil(retryAfter / 60)} minutes, when unfinished ones have expired.`,
+    });
+    expect(await openEntries()).toHaveLength(LIMIT);
+
+    const own = await insertCoupon(db, uploader, ['steel-1084'], 'private');
+    try {
+      await putToStorage(tickets[0], jpeg);
+      expect((await attach(jar, own.id, { key: tickets[0].key })).status).toBe(201);
+      expect((await ask()).status).toBe(201);
+      expect((await ask()).status).toBe(429);
+      await db.update(uploads).set({ expiresAt: new Date(Date.now() - (STALE_AFTER_MINUTES + 1) * 60_000) }).where(eq(uploads.key, tickets[1].key));
+      expect((await ask()).status).toBe(201);
+    } finally {
+      await deleteTestCoupons(db, [own.id]);
+    }
+  });
+
+  it('never lets more than 20 be open, however many are asked for at once', async () => {
+    await db.delete(uploads).where(eq(uploads.ownerId, uploaderId));
+    const answers = await Promise.all(Array.from({ length: 30 }, () => ask()));
+    const statuses = answers.map((response) => response.status);
+    expect(statuses.filter((status) => status !== 201 && status !== 429)).toEqual([]);
+    expect(statuses.filter((status) => status === 201).length).toBeLessThanOrEqual(LIMIT);
+    expect((await openEntries()).length).toBe(statuses.filter((status) => status === 201).length);
   });
 });

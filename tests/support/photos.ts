@@ -40,6 +40,13 @@ export async function deleteTestCoupons(db: Database, ids: number[]): Promise<vo
   if (ids.length) await db.delete(coupons).where(inArray(coupons.id, ids));
 }
 
+/** When an upload URL stops working: its X-Amz-Date plus X-Amz-Expires seconds (AWS Signature Version 4 query parameters). */
+export function urlExpiry(ticket: UploadTicket): number {
+  const url = new URL(ticket.url);
+  const [, year, month, day, hour, minute, second] = /^(\d{4})(\d{2})(\d{2})T(\d{2})(\d{2})(\d{2})Z$/.exec(url.searchParams.get('X-Amz-Date')!)!;
+  return Date.parse(`${year}-${month}-${day}T${hour}:${minute}:${second}Z`) + Number(url.searchParams.get('X-Amz-Expires')) * 1000;
+}
+
 /** POST /api/uploads; returns the raw response. */
 export const requestUpload = (jar: Jar | undefined, body: unknown) => api('/api/uploads', { jar, json: body });
 

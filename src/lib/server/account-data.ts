@@ -2,7 +2,7 @@ import { asc, eq, inArray } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, uploads, users } from '../../../db/schema';
 import { db } from './db';
 import { userPrefix } from './photo-keys';
-import { deleteObjects, listKeys, presignGet } from './storage';
+import { deleteObjects, listKeys, presignDownload } from './storage';
 import { findUserById } from './users';
 
 /** Everything we hold about one person, as one JSON document ("download my data"). */
@@ -30,7 +30,7 @@ export async function exportAccount(userId: string) {
       layers: layers.filter((layer) => layer.couponId === coupon.id).map(({ position, alloy }) => ({ position, alloy })),
     })),
     photos: await Promise.all(
-      ownPhotos.map(async ({ ownerId: _owner, ...photo }) => ({ ...photo, originalUrl: await presignGet(photo.originalKey, 24 * 3600) })),
+      ownPhotos.map(async ({ ownerId: _owner, ...photo }) => ({ ...photo, originalUrl: await presignDownload(photo.originalKey, photo.contentType, 24 * 3600) })),
     ),
     swatches: ownSwatches,
   };

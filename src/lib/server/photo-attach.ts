@@ -1,14 +1,14 @@
 import { checkRegions, TOO_BIG } from '../photo-requests';
-import { MAX_UPLOAD_BYTES, type RegionInput } from '../photos';
+import { kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind, type RegionInput } from '../photos';
 import { db } from './db';
 import { ImageRejected } from './image';
 import { analyseRegions } from './photo-analysis';
 import { isUsersKey } from './photo-keys';
 import { insertPhoto, isMissingParent, layerAlloys, photoTransaction, writeRegions } from './photo-records';
-import { processPhotoInTurn, writeDerivedFiles } from './photo-store';
+import { decodedContentType, processPhotoInTurn, writeDerivedFiles } from './photo-store';
 import { Refused } from './refusal';
-import { deleteObjects, getObject, objectSize } from './storage';
-import { claimUpload, dropEntry, forgetLater, settleUpload } from './uploads';
+import { deleteObjects, getObject, headObject } from './storage';
+import { claimUpload, dropEntry, forgetLater, settleUpload, type Declared } from './uploads';
 
 export interface AttachInput {
   ownerId: string;
@@ -18,13 +18,29 @@ export interface AttachInput {
   regions: RegionInput[];
 }
 
+const NOT_ARRIVED = 'The photo has not arrived in storage. Upload it to the URL you were given, then attach it.';
+const sizeMismatch = (stored: number, declared: number) => `The file in storage has ${stored} bytes, not the ${declared} bytes declared. Upload the photo again.`;
+
+/** Storage's content type without parameters, in lower case. */
+const bareType = (type: string | undefined) => (type ?? '').split(';')[0].trim().toLowerCase();
+
+/**
+ * Ends an upload that will not be attached: its file is deleted and its entry made stale, so it
+ * no longer counts as open and the sweep removes anything sent to its URL again.
+ */
+async function retireUpload(ownerId: string, key: string, declared: Declared): Promise<void> {
+  await deleteObjects([key]);
+  await forgetLater(db(), { key, ownerId, ...declared }, new Date());
+}
+
 /**
  * Turns an upload into a stored photo of a coupon (callers have checked the coupon is the
- * owner's): checks the key, claims the upload, reads and decodes the file, writes the derived
- * files, then the photo row, its regions and swatches in one transaction. Refused with a 4xx for
- * every fault of the request or the file; an unusable file is deleted. Nothing half-done stays:
- * derived files are deleted when the transaction fails, and the upload's ledger entry (see
- * uploads.ts) lets the sweep remove whatever a crash leaves.
+ * owner's): checks the key, claims the upload, checks the stored file against what was declared
+ * (size, type, and the kind of image the decoder finds), writes the derived files, then the photo
+ * row, its regions and swatches in one transaction. Refused with a 4xx for
+ * every fault of the request or the file; a file that does not match or cannot be used is
+ * deleted. Nothing half-done stays: derived files are deleted when the transaction fails, and the
+ * upload's ledger entry (see uploads.ts) lets the sweep remove whatever a crash leaves.
  */
 export async function attachPhoto(input: AttachInput): Promise<number> {
   const { ownerId, couponId, key, regions } = input;
@@ -33,23 +49,35 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   if (layerFault) throw new Refused(400, layerFault.message, layerFault.field);
 
   const claim = await claimUpload(ownerId, key);
-  if (claim === 'unknown') throw new Refused(404, 'There is no upload with that key. Ask for an upload URL first, or the photo was attached already.', 'key');
-  if (claim === 'expired') throw new Refused(410, 'That upload has expired. Upload the photo again.', 'key');
+  if (claim.status === 'unknown') throw new Refused(404, 'There is no upload with that key. Ask for an upload URL first, or the photo was attached already.', 'key');
+  if (claim.status === 'expired') throw new Refused(410, 'That upload has expired. Upload the photo again.', 'key');
+  const declared: Declared = { contentType: claim.contentType, byteSize: claim.byteSize };
+  /** Refuses a file that does not match what was declared or is not a usable photo, and deletes it. */
+  const refuse = async (status: number, message: string) => {
+    await retireUpload(ownerId, key, declared);
+    return new Refused(status, message, 'key');
+  };
 
-  const size = await objectSize(key);
-  if (size === undefined) throw new Refused(409, 'The photo has not arrived in storage. Upload it to the URL you were given, then attach it.', 'key');
-  if (size > MAX_UPLOAD_BYTES) {
-    await deleteObjects([key]);
-    throw new Refused(413, TOO_BIG, 'key');
+  // The URL binds type and size, but not every store checks (the local S3 fake does not): check again.
+  const stored = await headObject(key);
+  if (!stored) throw new Refused(409, NOT_ARRIVED, 'key');
+  if (stored.size === 0) throw await refuse(422, new ImageRejected('empty').message);
+  if (stored.size > MAX_UPLOAD_BYTES) throw await refuse(413, TOO_BIG);
+  if (stored.size !== declared.byteSize) throw await refuse(422, sizeMismatch(stored.size, declared.byteSize));
+  if (bareType(stored.contentType) !== declared.contentType) {
+    throw await refuse(422, `The file was stored as ${bareType(stored.contentType).slice(0, 100) || 'no type'}, not as the ${declared.contentType} declared. Upload the photo again.`);
   }
   const bytes = await getObject(key);
-  if (!bytes) throw new Refused(409, 'The photo has not arrived in storage. Upload it to the URL you were given, then attach it.', 'key');
+  if (!bytes) throw new Refused(409, NOT_ARRIVED, 'key');
+  // Sent again between the two reads: what counts is what was read.
+  if (bytes.length !== declared.byteSize) throw await refuse(422, sizeMismatch(bytes.length, declared.byteSize));
 
   const processed = await processPhotoInTurn(bytes).catch(async (error: unknown) => {
     if (!(error instanceof ImageRejected)) throw error;
-    await deleteObjects([key]);
-    throw new Refused(422, error.message, 'key');
+    throw await refuse(422, error.message);
   });
+  const decoded = decodedContentType(processed);
+  if (!sameImageKind(decoded, declared.contentType)) throw await refuse(422, kindMismatchMessage(decoded, declared.contentType));
   const outside = checkRegions(regions, input.layerIds, processed);
   if (outside) throw new Refused(400, outside.message, outside.field);
   const analysis = analyseRegions(processed.analysisImage, regions);
@@ -59,8 +87,9 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   try {
     photoId = await photoTransaction(db(), async (tx) => {
       if (!(await settleUpload(tx, key))) throw new Refused(409, 'That upload was attached already.', 'key');
-      // The uploaded file still carries its GPS position: its entry stays, stale, until it is deleted below.
-      if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: files.contentType, byteSize: bytes.length });
+      // The uploaded file still carries its GPS position: its entry stays until the file is deleted
+      // below, and while its URL may still be used, so a file sent to it again is swept too.
+      if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: declared.contentType, byteSize: bytes.length }, new Date());
       const id = await insertPhoto(tx, { couponId, ownerId, width: processed.width, height: processed.height, exif: processed.exif, ...files });
       await writeRegions(tx, { id, couponId }, regions, analysis, await layerAlloys(tx, couponId), { replacing: false });
       return id;

@@ -33,6 +33,9 @@ const CONTENT_TYPES: Record<ProcessedPhoto['format'], PhotoContentType> = {
   heic: 'image/heic',
 };
 
+/** The content type of what the decoder found (never what the browser claimed). */
+export const decodedContentType = (processed: Pick<ProcessedPhoto, 'format'>): PhotoContentType => CONTENT_TYPES[processed.format];
+
 /**
  * Writes the display WebP, the thumbnail and the analysis copy beside the original (and, when
  * the original carries a GPS position, a copy without it that then stands as the original).
@@ -46,7 +49,7 @@ export async function writeDerivedFiles(originalKey: string, originalBytes: numb
     displayKey: keys.display,
     thumbKey: keys.thumb,
     analysisKey: keys.analysis,
-    contentType: replacement ? replacement.contentType : CONTENT_TYPES[processed.format],
+    contentType: replacement ? replacement.contentType : decodedContentType(processed),
     byteSize: replacement ? replacement.data.length : originalBytes,
   };
   const writes: [string, Uint8Array, string][] = [

@@ -117,7 +117,8 @@ export async function reanalysePhoto(photo: PhotoRecord, drawn: RegionInput[]): 
  */
 export async function deletePhoto(photo: PhotoRecord): Promise<void> {
   await photoTransaction(db(), async (tx) => {
-    await forgetLater(tx, { key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize });
+    // The photo was attached after its upload URL was issued: the entry stays until that URL can no longer be used.
+    await forgetLater(tx, { key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize }, photo.createdAt);
     await tx.delete(photos).where(eq(photos.id, photo.id));
   });
   const own = [photo.originalKey, photo.displayKey, photo.thumbKey, photo.analysisKey].filter((key): key is string => Boolean(key));

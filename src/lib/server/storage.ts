@@ -47,16 +47,27 @@ export async function getObject(key: string): Promise<Uint8Array | undefined> {
   }
 }
 
-/** An object's size in bytes without reading it; undefined when it does not exist. */
-export async function objectSize(key: string): Promise<number | undefined> {
+/** What storage says of an object without reading it: its size and the content type it was stored with. */
+export interface StoredObject {
+  size: number;
+  contentType: string | undefined;
+}
+
+/** An object's size and stored content type; undefined when it does not exist. */
+export async function headObject(key: string): Promise<StoredObject | undefined> {
   try {
     const result = await s3().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
-    return result.ContentLength ?? 0;
+    return { size: result.ContentLength ?? 0, contentType: result.ContentType };
   } catch (error) {
     const failure = error as { name?: string; $metadata?: { httpStatusCode?: number } };
     if (failure.name === 'NotFound' || failure.name === 'NoSuchKey' || failure.$metadata?.httpStatusCode === 404) return undefined;
     throw error;
   }
+}
+
+/** An object's size in bytes without reading it; undefined when it does not exist. */
+export async function objectSize(key: string): Promise<number | undefined> {
+  return (await headObject(key))?.size;
 }
 
 export async function deleteObjects(keys: string[]): Promise<void> {
@@ -78,9 +89,20 @@ export async function listKeys(prefix: string): Promise<string[]> {
   return keys;
 }
 
-/** A presigned PUT the browser uses to upload straight to storage. */
-export async function presignPut(key: string, contentType: string, expiresInSeconds: number): Promise<string> {
-  return getSignedUrl(s3(), new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType }), { expiresIn: expiresInSeconds });
+/**
+ * A presigned PUT the browser uses to upload straight to storage. Content-Type and Content-Length
+ * are signed headers, so storage refuses a file of another type or size (the presigner leaves the
+ * content type unsigned unless asked).
+ */
+export async function presignPut(key: string, contentType: string, byteSize: number, expiresInSeconds: number): Promise<string> {
+  const command = new PutObjectCommand({ Bucket: bucket(), Key: key, ContentType: contentType, ContentLength: byteSize });
+  return getSignedUrl(s3(), command, { expiresIn: expiresInSeconds, signableHeaders: new Set(['content-type', 'content-length']) });
+}
+
+/** A presigned GET to download a file: storage answers with this content type, as an attachment, whatever the object was stored with. */
+export async function presignDownload(key: string, contentType: string, expiresInSeconds: number): Promise<string> {
+  const command = new GetObjectCommand({ Bucket: bucket(), Key: key, ResponseContentType: contentType, ResponseContentDisposition: 'attachment' });
+  return getSignedUrl(s3(), command, { expiresIn: expiresInSeconds });
 }
 
 /** A presigned GET for showing a stored file; a fixed `signingDate` gives the same URL (so browsers can cache it). */

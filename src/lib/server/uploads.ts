@@ -10,34 +10,74 @@ import { deleteObjects, listKeys, presignPut } from './storage';
  * The `uploads` table is the ledger of objects in storage that no photo row owns yet (or any
  * more). Every such object has an entry; the sweep deletes the objects of entries gone stale.
  *
- * - A presigned upload adds an entry that expires with the URL (10 minutes).
+ * - A presigned upload adds an entry that expires with the URL (10 minutes); its `createdAt` is
+ *   when the URL was issued. A person has at most MAX_OPEN_UPLOADS open (not stale) entries.
  * - Attaching claims the entry (its expiry moves on while the photo is processed); success
- *   removes it in the same transaction that writes the photo row.
+ *   removes it in the same transaction that writes the photo row. A file refused at attach is
+ *   deleted and its entry made stale (forgetLater).
  * - An entry is stale STALE_AFTER_MINUTES after it expires. From then on it can no longer be
  *   claimed, and the sweep clears its folder — unless a photo owns that folder, in which case
  *   only the entry's own key goes (e.g. an original replaced by a copy without its GPS position).
  * - Deleting a photo adds a stale entry for its folder in the transaction that removes the row,
  *   so files a failed deletion leaves behind are swept later.
+ * - An entry goes only once its key's upload URL can no longer be used (URL_USABLE_MS after
+ *   `createdAt`): until then the sweep keeps deleting what arrives but keeps the entry, so a file
+ *   sent again to a URL whose upload was refused or deleted is never left without one.
  *
  * Claim and sweep take disjoint sets of entries at every instant (not yet stale / stale), and
  * staleness only grows with time, so any number of app processes may attach and sweep at once.
  */
 export const STALE_AFTER_MINUTES = 30;
+/** Uploads a person may have open (asked for, not attached, not yet stale) at once. */
+export const MAX_OPEN_UPLOADS = 20;
 /** How long a claimed upload stays claimed while it is processed. */
 const CLAIM_SECONDS = 10 * 60;
+/** How long after it was issued an upload URL may still be used: its life, and a margin for clocks that disagree. */
+const URL_USABLE_MS = (UPLOAD_EXPIRY_SECONDS + 2 * 60) * 1000;
 
 const minutesAgo = (minutes: number, now = Date.now()) => new Date(now - minutes * 60_000);
 const affectedRows = (result: unknown) => (result as [{ affectedRows: number }])[0].affectedRows;
 
-export async function createUpload(ownerId: string, contentType: PhotoContentType, byteSize: number): Promise<UploadTicket> {
+export type UploadRequestResult = { status: 'created'; ticket: UploadTicket } | { status: 'limited'; retryAfterSeconds: number };
+
+/**
+ * Records an upload and presigns its PUT, unless the person has MAX_OPEN_UPLOADS open already.
+ * The entry is counted after it is inserted and withdrawn when over the limit, so requests at
+ * once never get past it together (at worst each sees the others and all withdraw).
+ */
+export async function createUpload(ownerId: string, contentType: PhotoContentType, byteSize: number): Promise<UploadRequestResult> {
   const key = newUploadKey(ownerId, contentType);
-  const expiresAt = new Date(Date.now() + UPLOAD_EXPIRY_SECONDS * 1000);
-  await db().insert(uploads).values({ key, ownerId, contentType, byteSize, expiresAt });
-  const url = await presignPut(key, contentType, UPLOAD_EXPIRY_SECONDS);
-  return { key, url, headers: { 'content-type': contentType }, expiresAt: expiresAt.toISOString() };
+  const now = Date.now();
+  const expiresAt = new Date(now + UPLOAD_EXPIRY_SECONDS * 1000);
+  await db().insert(uploads).values({ key, ownerId, contentType, byteSize, expiresAt, createdAt: new Date(now) });
+  const open = await db()
+    .select({ expiresAt: uploads.expiresAt })
+    .from(uploads)
+    .where(and(eq(uploads.ownerId, ownerId), gte(uploads.expiresAt, minutesAgo(STALE_AFTER_MINUTES, now))))
+    .orderBy(asc(uploads.expiresAt));
+  if (open.length > MAX_OPEN_UPLOADS) {
+    await db().delete(uploads).where(eq(uploads.key, key));
+    // A place frees when the oldest open entry goes stale.
+    const freesAt = open[0].expiresAt.getTime() + STALE_AFTER_MINUTES * 60_000;
+    return { status: 'limited', retryAfterSeconds: Math.max(1, Math.ceil((freesAt - now) / 1000)) };
+  }
+  const url = await presignPut(key, contentType, byteSize, UPLOAD_EXPIRY_SECONDS);
+  return { status: 'created', ticket: { key, url, headers: { 'content-type': contentType }, expiresAt: expiresAt.toISOString() } };
 }
 
-export type Claim = 'claimed' | 'unknown' | 'expired';
+/** Why another upload is refused while MAX_OPEN_UPLOADS are open. */
+export function tooManyOpenUploads(retryAfterSeconds: number): string {
+  const minutes = Math.ceil(retryAfterSeconds / 60);
+  return `You have ${MAX_OPEN_UPLOADS} uploads not yet added to a coupon. Add those photos, or try again in ${minutes} minute${minutes === 1 ? '' : 's'}, when unfinished ones have expired.`;
+}
+
+/** A claimed upload with what was declared when it was asked for. */
+export interface Declared {
+  contentType: PhotoContentType;
+  byteSize: number;
+}
+
+export type Claim = ({ status: 'claimed' } & Declared) | { status: 'unknown' } | { status: 'expired' };
 
 /** Claims an upload of the owner's for attaching: 'unknown' when there is no such entry, 'expired' when it is stale. */
 export async function claimUpload(ownerId: string, key: string): Promise<Claim> {
@@ -46,9 +86,13 @@ export async function claimUpload(ownerId: string, key: string): Promise<Claim> 
     .update(uploads)
     .set({ expiresAt: new Date(now + CLAIM_SECONDS * 1000) })
     .where(and(eq(uploads.key, key), eq(uploads.ownerId, ownerId), gte(uploads.expiresAt, minutesAgo(STALE_AFTER_MINUTES, now))));
-  if (affectedRows(result) === 1) return 'claimed';
-  const [entry] = await db().select({ key: uploads.key }).from(uploads).where(and(eq(uploads.key, key), eq(uploads.ownerId, ownerId)));
-  return entry ? 'expired' : 'unknown';
+  const [entry] = await db()
+    .select({ contentType: uploads.contentType, byteSize: uploads.byteSize })
+    .from(uploads)
+    .where(and(eq(uploads.key, key), eq(uploads.ownerId, ownerId)));
+  if (!entry) return { status: 'unknown' };
+  if (affectedRows(result) !== 1) return { status: 'expired' };
+  return { status: 'claimed', contentType: entry.contentType as PhotoContentType, byteSize: entry.byteSize };
 }
 
 /** Within a transaction: ends an entry once a photo row owns the object. False when another attach got there first. */
@@ -56,18 +100,39 @@ export async function settleUpload(tx: Pick<Database, 'delete'>, key: string): P
   return affectedRows(await tx.delete(uploads).where(eq(uploads.key, key))) === 1;
 }
 
-/** Within a transaction: records objects no row will own, stale at once, so the sweep removes them if nothing else does. */
-export async function forgetLater(tx: Pick<Database, 'insert'>, entry: { key: string; ownerId: string; contentType: string; byteSize: number }) {
+export interface LedgerEntry {
+  key: string;
+  ownerId: string;
+  contentType: string;
+  byteSize: number;
+}
+
+/**
+ * Within a transaction (or alone): records objects no row will own, stale at once, so the sweep
+ * removes them if nothing else does. `urlIssuedBy` is when the key's upload URL was issued, or any
+ * later moment: the entry stays until that URL can no longer be used (an existing entry keeps its
+ * own, exact, issue time).
+ */
+export async function forgetLater(tx: Pick<Database, 'insert'>, entry: LedgerEntry, urlIssuedBy: Date) {
   const long = minutesAgo(STALE_AFTER_MINUTES + 1);
   await tx
     .insert(uploads)
-    .values({ ...entry, expiresAt: long })
+    .values({ ...entry, expiresAt: long, createdAt: urlIssuedBy })
     .onDuplicateKeyUpdate({ set: { expiresAt: long } });
 }
 
-/** Drops an entry whose objects are gone (best effort: a left-over entry is swept anyway). */
+/** Entries whose key's upload URL can no longer be used: issued before this. */
+const urlsUnusableBefore = (now = Date.now()) => new Date(now - URL_USABLE_MS);
+
+/**
+ * Drops a stale entry whose objects are gone, once its URL can no longer be used (until then the
+ * sweep keeps it). Best effort: a left-over entry is swept anyway.
+ */
 export async function dropEntry(key: string): Promise<void> {
-  await db().delete(uploads).where(eq(uploads.key, key)).catch(() => undefined);
+  await db()
+    .delete(uploads)
+    .where(and(eq(uploads.key, key), lt(uploads.expiresAt, minutesAgo(STALE_AFTER_MINUTES)), lt(uploads.createdAt, urlsUnusableBefore())))
+    .catch(() => undefined);
 }
 
 export interface SweepResult {
@@ -76,9 +141,9 @@ export interface SweepResult {
 }
 
 /**
- * Deletes the objects of stale ledger entries and then the entries. Safe to run in several
- * processes at once: deleting an object twice is harmless, and an entry is removed only while
- * it is still stale.
+ * Deletes the objects of stale ledger entries and then the entries (each once its URL can no
+ * longer be used). Safe to run in several processes at once: deleting an object twice is
+ * harmless, and an entry is removed only while it is still stale.
  */
 export async function sweepStaleUploads(now = Date.now(), batch = 200): Promise<SweepResult> {
   const cutoff = minutesAgo(STALE_AFTER_MINUTES, now);
@@ -99,7 +164,8 @@ export async function sweepStaleUploads(now = Date.now(), batch = 200): Promise<
     const doomed = attached ? [] : owners.length > 0 ? [entry.key] : [...new Set([entry.key, ...(await listKeys(folder))])];
     await deleteObjects(doomed);
     result.objects += doomed.length;
-    result.entries += affectedRows(await db().delete(uploads).where(and(eq(uploads.key, entry.key), lt(uploads.expiresAt, cutoff))));
+    const gone = and(eq(uploads.key, entry.key), lt(uploads.expiresAt, cutoff), lt(uploads.createdAt, urlsUnusableBefore(now)));
+    result.entries += affectedRows(await db().delete(uploads).where(gone));
   }
   return result;
 }

@@ -3,9 +3,12 @@ import { refuseUpload, uploadRequestSchema } from '../../lib/photo-requests';
 import type { PhotoContentType } from '../../lib/photos';
 import { isResponse, requireRole } from '../../lib/server/authorise';
 import { json, parseJson, problem } from '../../lib/server/http';
-import { createUpload } from '../../lib/server/uploads';
+import { createUpload, tooManyOpenUploads } from '../../lib/server/uploads';
 
-/** A presigned PUT for one photo, under the caller's own prefix; the browser uploads straight to storage. */
+/**
+ * A presigned PUT for one photo, under the caller's own prefix, signed for its type and size; the
+ * browser uploads straight to storage. A 429 while the caller has too many uploads open.
+ */
 export const POST: APIRoute = async (context) => {
   const user = await requireRole(context, 'member');
   if (isResponse(user)) return user;
@@ -13,5 +16,11 @@ export const POST: APIRoute = async (context) => {
   if (!input.ok) return input.response;
   const refusal = refuseUpload(input.data);
   if (refusal) return problem(refusal.status, refusal.message, refusal.field);
-  return json(await createUpload(user.id, input.data.contentType as PhotoContentType, input.data.size), 201);
+  const created = await createUpload(user.id, input.data.contentType as PhotoContentType, input.data.size);
+  if (created.status === 'limited') {
+    const response = problem(429, tooManyOpenUploads(created.retryAfterSeconds));
+    response.headers.set('retry-after', String(created.retryAfterSeconds));
+    return response;
+  }
+  return json(created.ticket, 201);
 };

@@ -1,7 +1,7 @@
 // The photo requests' own checks, table-driven; the limits are the issue's (four formats, 30 MB).
 import { describe, expect, it } from 'vitest';
 import { checkRegions, refuseUpload, regionsSchema, TOO_BIG, UNACCEPTED_TYPE, uploadRequestSchema } from '../../../src/lib/photo-requests';
-import { declaredContentType, formatLab, formatShare, MAX_UPLOAD_BYTES } from '../../../src/lib/photos';
+import { declaredContentType, formatLab, formatShare, kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind } from '../../../src/lib/photos';
 
 describe('an upload request', () => {
   it.each([
@@ -20,6 +20,26 @@ describe('an upload request', () => {
     expect(declaredContentType({ name: 'coupon.jpeg', type: '' })).toBe('image/jpeg');
     expect(declaredContentType({ name: 'coupon.png', type: 'image/png' })).toBe('image/png');
     expect(declaredContentType({ name: 'notes', type: '' })).toBe('application/octet-stream');
+  });
+});
+
+describe('the kind of image declared and the kind decoded', () => {
+  // Source: IANA media types image/heic and image/heif (registered from ISO/IEC 23008-12, HEIF):
+  // HEIC is HEIF with HEVC-coded images, so either label may come with the same file.
+  it.each([
+    ['image/jpeg', 'image/jpeg', true],
+    ['image/heic', 'image/heif', true],
+    ['image/heif', 'image/heic', true],
+    ['image/png', 'image/jpeg', false],
+    ['image/webp', 'image/png', false],
+    ['image/heic', 'image/jpeg', false],
+  ] as const)('%s decoded, %s declared: same kind %s', (decoded, declared, same) => {
+    expect(sameImageKind(decoded, declared)).toBe(same);
+  });
+
+  it('names both kinds and the file name the photo should have', () => {
+    expect(kindMismatchMessage('image/png', 'image/jpeg')).toBe('This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.');
+    expect(kindMismatchMessage('image/heic', 'image/webp')).toBe('This file is a HEIC image, but it was declared as WebP. Give it the right file name (.heic) and upload it again.');
   });
 });
 
