@@ -6,8 +6,8 @@ import type { SessionUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
-import { couponPhotoFiles } from './photos';
-import { deleteObjects } from './storage';
+import { lockCoupon, photoTransaction } from './photo-records';
+import { forgetCouponPhotos, removePhotoFiles } from './photos';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
@@ -154,11 +154,23 @@ export async function setVisibility(id: number, visibility: Visibility): Promise
   await db().update(coupons).set({ visibility }).where(eq(coupons.id, id));
 }
 
-/** Deletes a coupon (photos, regions and swatches cascade) and then its files in storage. */
-export async function deleteCoupon(id: number): Promise<void> {
-  const files = await couponPhotoFiles(id);
-  await db().delete(coupons).where(eq(coupons.id, id));
-  await deleteObjects(files);
+/**
+ * Deletes a coupon (photos, regions and swatches cascade) and then its photos' files. The
+ * transaction locks the coupon's row, so a photo being attached either is in before its photos
+ * are read or finds the coupon gone, and records a ledger entry for each photo's folder, so the
+ * sweep removes whatever deleting the files (best effort, after commit) leaves. False when the
+ * coupon was gone already.
+ */
+export async function deleteCoupon(id: number): Promise<boolean> {
+  const photosGone = await photoTransaction(db(), async (tx) => {
+    if (!(await lockCoupon(tx, id))) return undefined;
+    const owned = await forgetCouponPhotos(tx, id);
+    await tx.delete(coupons).where(eq(coupons.id, id));
+    return owned;
+  });
+  if (!photosGone) return false;
+  for (const photo of photosGone) await removePhotoFiles(photo);
+  return true;
 }
 
 export async function photoCounts(couponIds: number[]): Promise<Map<number, number>> {

@@ -4,7 +4,7 @@ import { db } from './db';
 import { ImageRejected } from './image';
 import { analyseRegions } from './photo-analysis';
 import { isUsersKey } from './photo-keys';
-import { insertPhoto, isMissingParent, layerAlloys, photoTransaction, writeRegions } from './photo-records';
+import { insertPhoto, isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions } from './photo-records';
 import { decodedContentType, processPhotoInTurn, writeDerivedFiles } from './photo-store';
 import { Refused } from './refusal';
 import { deleteObjects, getObject, headObject } from './storage';
@@ -37,7 +37,7 @@ async function retireUpload(ownerId: string, key: string, declared: Declared): P
  * Turns an upload into a stored photo of a coupon (callers have checked the coupon is the
  * owner's): checks the key, claims the upload, checks the stored file against what was declared
  * (size, type, and the kind of image the decoder finds), writes the derived files, then the photo
- * row, its regions and swatches in one transaction. Refused with a 4xx for
+ * row, its regions and swatches in one transaction that locks the coupon. Refused with a 4xx for
  * every fault of the request or the file; a file that does not match or cannot be used is
  * deleted. Nothing half-done stays: derived files are deleted when the transaction fails, and the
  * upload's ledger entry (see uploads.ts) lets the sweep remove whatever a crash leaves.
@@ -83,9 +83,11 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   const analysis = analyseRegions(processed.analysisImage, regions);
 
   const files = await writeDerivedFiles(key, bytes.length, processed);
+  const couponGone = new Refused(404, 'That coupon was not found.');
   let photoId: number;
   try {
     photoId = await photoTransaction(db(), async (tx) => {
+      if (!(await lockCoupon(tx, couponId))) throw couponGone;
       if (!(await settleUpload(tx, key))) throw new Refused(409, 'That upload was attached already.', 'key');
       // The uploaded file still carries its GPS position: its entry stays until the file is deleted
       // below, and while its URL may still be used, so a file sent to it again is swept too.
@@ -95,8 +97,12 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
       return id;
     });
   } catch (error) {
+    // Deleted here, or (when that fails) swept with the upload's folder: its entry is still there.
     await deleteObjects(files.written).catch(() => undefined);
-    if (isMissingParent(error)) throw new Refused(404, 'That coupon was not found.');
+    // Deleted while the photo was processed: the upload has nowhere to go.
+    if (error === couponGone) await retireUpload(ownerId, key, declared).catch(() => undefined);
+    // A layer removed by an edit of the coupon since the regions were checked.
+    if (isMissingParent(error)) throw new Refused(400, 'A layer of those regions is no longer part of the coupon.', 'regions');
     throw error;
   }
   if (files.originalKey !== key) {

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { couponLayers, photos, regions, swatches } from '../../../db/schema';
+import { couponLayers, coupons, photos, regions, swatches } from '../../../db/schema';
 import type { Database } from '../../../db/client';
 import type { Swatch } from '../analysis';
 import type { RegionInput } from '../photos';
@@ -7,7 +7,7 @@ import type { PhotoAnalysis, PhotoExif } from './image';
 
 /** Writing a photo's row, regions and swatches. Takes the database or a transaction (the seed passes its own). */
 type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;
-type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
+export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
 
 const DEADLOCK = 1213;
 const errnoOf = (error: unknown) => {
@@ -29,6 +29,17 @@ export async function photoTransaction<T>(database: Database, work: (tx: Transac
       await new Promise((resolve) => setTimeout(resolve, 20 * attempt + Math.random() * 30));
     }
   }
+}
+
+/**
+ * Within a transaction: locks a coupon's row, or finds it gone (false). Every write of a coupon's
+ * photos and the coupon's deletion lock it first, so they take turns: a photo is attached before
+ * the deletion reads the coupon's photos, or finds the coupon gone; and the locks are always taken
+ * in one order (coupon, then photo), so these writes never deadlock each other.
+ */
+export async function lockCoupon(tx: Pick<Database, 'select'>, couponId: number): Promise<boolean> {
+  const [row] = await tx.select({ id: coupons.id }).from(coupons).where(eq(coupons.id, couponId)).for('update');
+  return Boolean(row);
 }
 
 export interface PhotoFiles {

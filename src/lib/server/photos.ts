@@ -6,10 +6,10 @@ import { db } from './db';
 import { decodeForAnalysis } from './image';
 import { decodeAnalysisImage, analyseRegions } from './photo-analysis';
 import { folderOf, viewUrl } from './photo-files';
-import { isMissingParent, layerAlloys, photoTransaction, writeRegions } from './photo-records';
+import { isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions, type Transaction } from './photo-records';
 import { Refused } from './refusal';
 import { deleteObjects, getObject, listKeys } from './storage';
-import { dropEntry, forgetLater } from './uploads';
+import { dropEntry, forgetLater, type LedgerEntry } from './uploads';
 
 export type PhotoRecord = typeof photos.$inferSelect;
 
@@ -81,9 +81,21 @@ export async function photoViews(couponId: number): Promise<PhotoView[]> {
   }));
 }
 
-export async function photoView(photo: PhotoRecord): Promise<PhotoView> {
-  return (await photoViews(photo.couponId)).find((view) => view.id === photo.id)!;
+/** One photo as the API answers it; undefined when it (or its coupon) was deleted meanwhile. */
+export async function photoView(photo: PhotoRecord): Promise<PhotoView | undefined> {
+  return (await photoViews(photo.couponId)).find((view) => view.id === photo.id);
 }
+
+const GONE = 'That photo was not found.';
+
+/** Locks a photo's coupon, then the photo (the order every photo write takes), or finds one gone. */
+async function lockPhoto(tx: Transaction, photo: PhotoRecord): Promise<boolean> {
+  if (!(await lockCoupon(tx, photo.couponId))) return false;
+  const [locked] = await tx.select({ id: photos.id }).from(photos).where(eq(photos.id, photo.id)).for('update');
+  return Boolean(locked);
+}
+
+const photoExists = async (id: number) => (await db().select({ id: photos.id }).from(photos).where(eq(photos.id, id))).length > 0;
 
 /** The copy colours are measured on: the stored analysis copy, or a fresh decode of the original when there is none. */
 async function analysisImageOf(photo: PhotoRecord) {
@@ -91,8 +103,10 @@ async function analysisImageOf(photo: PhotoRecord) {
   const copy = photo.analysisKey ? await getObject(photo.analysisKey) : undefined;
   if (copy) return decodeAnalysisImage(copy, size);
   const original = await getObject(photo.originalKey);
-  if (!original) throw new Refused(409, 'The original of this photo is missing from storage; delete the photo and upload it again.');
-  return decodeForAnalysis(original);
+  if (original) return decodeForAnalysis(original);
+  // Its files go right after its row when a photo is deleted.
+  if (!(await photoExists(photo.id))) throw new Refused(404, GONE);
+  throw new Refused(409, 'The original of this photo is missing from storage; delete the photo and upload it again.');
 }
 
 /** Measures the photo again with these regions and replaces its regions and swatches. */
@@ -100,9 +114,8 @@ export async function reanalysePhoto(photo: PhotoRecord, drawn: RegionInput[]): 
   const analysis = analyseRegions(await analysisImageOf(photo), drawn);
   try {
     await photoTransaction(db(), async (tx) => {
-      // Locks the photo row, so two saves of the same photo take turns instead of mixing.
-      const [locked] = await tx.select({ id: photos.id }).from(photos).where(eq(photos.id, photo.id)).for('update');
-      if (!locked) throw new Refused(404, 'That photo was not found.');
+      // Two saves of the same photo take turns instead of mixing; a deleted one is not written.
+      if (!(await lockPhoto(tx, photo))) throw new Refused(404, GONE);
       await writeRegions(tx, photo, drawn, analysis, await layerAlloys(tx, photo.couponId), { replacing: true });
     });
   } catch (error) {
@@ -111,23 +124,51 @@ export async function reanalysePhoto(photo: PhotoRecord, drawn: RegionInput[]): 
   }
 }
 
+/** The ledger entry that stands for a photo's folder once its row is gone. */
+const ledgerEntryOf = (photo: PhotoRecord): LedgerEntry => ({ key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize });
+
 /**
- * Deletes a photo: the row (regions and swatches cascade) goes together with a stale ledger
- * entry for its folder, then the files; if deleting the files fails, the sweep finishes the job.
+ * Within a deletion, once the photo's row is locked: a ledger entry for its folder, so the sweep
+ * removes what deleting its files leaves. The photo was attached after its upload URL was issued,
+ * so the entry holds at least until that URL can no longer be used.
  */
-export async function deletePhoto(photo: PhotoRecord): Promise<void> {
-  await photoTransaction(db(), async (tx) => {
-    // The photo was attached after its upload URL was issued: the entry stays until that URL can no longer be used.
-    await forgetLater(tx, { key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize }, photo.createdAt);
-    await tx.delete(photos).where(eq(photos.id, photo.id));
-  });
-  const own = [photo.originalKey, photo.displayKey, photo.thumbKey, photo.analysisKey].filter((key): key is string => Boolean(key));
-  await deleteObjects([...new Set([...own, ...(await listKeys(folderOf(photo.originalKey)))])]);
-  await dropEntry(photo.originalKey);
+const forgetPhoto = (tx: Transaction, photo: PhotoRecord) => forgetLater(tx, ledgerEntryOf(photo), photo.createdAt);
+
+/**
+ * Deletes a photo's files once its row is gone, best effort: what is left, the sweep removes
+ * (the folder has its ledger entry).
+ */
+export async function removePhotoFiles(photo: PhotoRecord): Promise<void> {
+  try {
+    const own = [photo.originalKey, photo.displayKey, photo.thumbKey, photo.analysisKey].filter((key): key is string => Boolean(key));
+    await deleteObjects([...new Set([...own, ...(await listKeys(folderOf(photo.originalKey)))])]);
+    await dropEntry(photo.originalKey);
+  } catch (error) {
+    console.error(`[oxbloom] deleting the files of photo ${photo.id} failed; the sweep will: ${error instanceof Error ? error.message : error}`);
+  }
 }
 
-/** Every stored file of a coupon's photos (for deleting the coupon). */
-export async function couponPhotoFiles(couponId: number): Promise<string[]> {
-  const rows = await db().select().from(photos).where(eq(photos.couponId, couponId));
-  return rows.flatMap((row) => [row.originalKey, row.displayKey, row.thumbKey, row.analysisKey].filter((key): key is string => Boolean(key)));
+/**
+ * Deletes a photo: the row (regions and swatches cascade) goes together with a ledger entry for
+ * its folder, then the files. False when it was gone already (deleted, or its coupon was).
+ */
+export async function deletePhoto(photo: PhotoRecord): Promise<boolean> {
+  const deleted = await photoTransaction(db(), async (tx) => {
+    if (!(await lockPhoto(tx, photo))) return false;
+    await forgetPhoto(tx, photo);
+    await tx.delete(photos).where(eq(photos.id, photo.id));
+    return true;
+  });
+  if (deleted) await removePhotoFiles(photo);
+  return deleted;
+}
+
+/**
+ * Within a coupon's deletion, once the coupon's row is locked: locks its photos and gives each
+ * one's folder a ledger entry. Returns the photos, whose files go after the transaction.
+ */
+export async function forgetCouponPhotos(tx: Transaction, couponId: number): Promise<PhotoRecord[]> {
+  const rows = await tx.select().from(photos).where(eq(photos.couponId, couponId)).for('update');
+  for (const row of rows) await forgetPhoto(tx, row);
+  return rows;
 }

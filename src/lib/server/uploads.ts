@@ -13,13 +13,13 @@ import { deleteObjects, listKeys, presignPut } from './storage';
  * - A presigned upload adds an entry that expires with the URL (10 minutes); its `createdAt` is
  *   when the URL was issued. A person has at most MAX_OPEN_UPLOADS open (not stale) entries.
  * - Attaching claims the entry (its expiry moves on while the photo is processed); success
- *   removes it in the same transaction that writes the photo row. A file refused at attach is
- *   deleted and its entry made stale (forgetLater).
+ *   removes it in the same transaction that writes the photo row. A file refused at attach (or
+ *   whose coupon was deleted meanwhile) is deleted and its entry made stale (forgetLater).
  * - An entry is stale STALE_AFTER_MINUTES after it expires. From then on it can no longer be
  *   claimed, and the sweep clears its folder — unless a photo owns that folder, in which case
  *   only the entry's own key goes (e.g. an original replaced by a copy without its GPS position).
- * - Deleting a photo adds a stale entry for its folder in the transaction that removes the row,
- *   so files a failed deletion leaves behind are swept later.
+ * - Deleting a photo, or a coupon with its photos, adds a stale entry for each photo's folder in
+ *   the transaction that removes the rows, so files a failed deletion leaves behind are swept.
  * - An entry goes only once its key's upload URL can no longer be used (URL_USABLE_MS after
  *   `createdAt`): until then the sweep keeps deleting what arrives but keeps the entry, so a file
  *   sent again to a URL whose upload was refused or deleted is never left without one.

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { couponInputSchema } from '../../../lib/coupons';
 import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
 import { couponFromRoute, couponView, deleteCoupon, findCoupon, heatRecordOf, updateCoupon } from '../../../lib/server/coupons';
-import { json, parseJson, parseValue } from '../../../lib/server/http';
+import { json, parseJson, parseValue, problem } from '../../../lib/server/http';
 
 export const GET: APIRoute = async (context) => {
   const coupon = await couponFromRoute(context.params);
@@ -36,6 +36,6 @@ export const PATCH: APIRoute = async (context) => {
 export const DELETE: APIRoute = async (context) => {
   const found = await loadForChange(context);
   if (isResponse(found)) return found;
-  await deleteCoupon(found.coupon.id);
+  if (!(await deleteCoupon(found.coupon.id))) return problem(404, 'That coupon was not found.');
   return new Response(null, { status: 204 });
 };

@@ -13,7 +13,10 @@ async function load(params: Record<string, string | undefined>) {
 export const GET: APIRoute = async (context) => {
   const found = await load(context.params);
   if (isResponse(found)) return found;
-  return checkAccess(context.locals.user, found.coupon, 'see', 'That photo') ?? json(await photoView(found.photo));
+  const denied = checkAccess(context.locals.user, found.coupon, 'see', 'That photo');
+  if (denied) return denied;
+  const view = await photoView(found.photo);
+  return view ? json(view) : problem(404, 'That photo was not found.');
 };
 
 /** Deletes the photo, its regions and swatches, and its files in storage (the coupon's owner or an admin). */
@@ -24,6 +27,6 @@ export const DELETE: APIRoute = async (context) => {
   if (isResponse(found)) return found;
   const denied = checkAccess(user, found.coupon, 'change', 'That photo');
   if (denied) return denied;
-  await deletePhoto(found.photo);
+  if (!(await deletePhoto(found.photo))) return problem(404, 'That photo was not found.');
   return new Response(null, { status: 204 });
 };

@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { attachRequestSchema } from '../../../../lib/photo-requests';
 import { checkAccess, isResponse, requireRole } from '../../../../lib/server/authorise';
 import { couponFromRoute } from '../../../../lib/server/coupons';
-import { json, parseJson } from '../../../../lib/server/http';
+import { json, parseJson, problem } from '../../../../lib/server/http';
 import { attachPhoto } from '../../../../lib/server/photo-attach';
 import { findPhoto, photoView, photoViews } from '../../../../lib/server/photos';
 import { refusalResponse } from '../../../../lib/server/refusal';
@@ -28,7 +28,10 @@ export const POST: APIRoute = async (context) => {
     const layerIds = coupon.layerDetails.map((layer) => layer.id);
     const id = await attachPhoto({ ownerId: user.id, couponId: coupon.id, layerIds, key: input.data.key, regions: input.data.regions ?? [] });
     const stored = await findPhoto(id);
-    return json(await photoView(stored!.photo), 201, { location: `/api/photos/${id}` });
+    const view = stored && (await photoView(stored.photo));
+    // Attached, and then the coupon was deleted with it before we could answer.
+    if (!view) return problem(404, 'That coupon was not found.');
+    return json(view, 201, { location: `/api/photos/${id}` });
   } catch (error) {
     return refusalResponse(error);
   }

@@ -20,11 +20,14 @@ export const PUT: APIRoute = async (context) => {
   const input = await parseJson(context.request, regionsRequestSchema);
   if (!input.ok) return input.response;
   const layerIds = [...(await layerAlloys(db(), found.coupon.id)).keys()];
+  // Every coupon has a layer: none means it was deleted just now, with this photo.
+  if (layerIds.length === 0) return problem(404, 'That photo was not found.');
   const fault = checkRegions(input.data.regions, layerIds, found.photo);
   if (fault) return problem(400, fault.message, fault.field);
   try {
     await reanalysePhoto(found.photo, input.data.regions);
-    return json(await photoView(found.photo));
+    const view = await photoView(found.photo);
+    return view ? json(view) : problem(404, 'That photo was not found.');
   } catch (error) {
     return refusalResponse(error);
   }
