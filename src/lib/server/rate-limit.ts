@@ -18,19 +18,24 @@ const bucketOf = (limit: Limit, subject: string) =>
 /**
  * Counts one attempt against a fixed window kept in MariaDB, so every app process shares it.
  * The window restarts when it has passed.
+ *
+ * Two statements, each of which reads only values it does not assign: MariaDB applies the
+ * assignments of one UPDATE (and of ON DUPLICATE KEY UPDATE) left to right, each seeing the ones
+ * before it, so a single statement that both restarts the window and tests it would depend on the
+ * order its columns are written in. The restart matches only an expired window, so two requests at
+ * the boundary restart it once.
  */
 export async function hit(limit: Limit, subject: string): Promise<LimitResult> {
   const bucket = bucketOf(limit, subject);
   const window = limit.windowSeconds;
   await db()
+    .update(rateLimits)
+    .set({ hits: 0, windowStart: sql`UTC_TIMESTAMP()` })
+    .where(sql`${rateLimits.bucket} = ${bucket} AND ${rateLimits.windowStart} <= UTC_TIMESTAMP() - INTERVAL ${window} SECOND`);
+  await db()
     .insert(rateLimits)
     .values({ bucket, windowStart: sql`UTC_TIMESTAMP()`, hits: 1 })
-    .onDuplicateKeyUpdate({
-      set: {
-        hits: sql`IF(${rateLimits.windowStart} <= UTC_TIMESTAMP() - INTERVAL ${window} SECOND, 1, ${rateLimits.hits} + 1)`,
-        windowStart: sql`IF(${rateLimits.windowStart} <= UTC_TIMESTAMP() - INTERVAL ${window} SECOND, UTC_TIMESTAMP(), ${rateLimits.windowStart})`,
-      },
-    });
+    .onDuplicateKeyUpdate({ set: { hits: sql`${rateLimits.hits} + 1` } });
   const [row] = await db()
     .select({ hits: rateLimits.hits, age: sql<number>`TIMESTAMPDIFF(SECOND, ${rateLimits.windowStart}, UTC_TIMESTAMP())` })
     .from(rateLimits)
