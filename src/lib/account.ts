@@ -1,7 +1,9 @@
 import { z } from 'zod';
+import { plainText } from './text';
 
 /** Account rules shared by forms, islands and routes. */
 export const PASSWORD_MIN_LENGTH = 10;
+export const PASSWORD_MAX_LENGTH = 200;
 export const DELETE_CONFIRMATION = 'delete my account';
 
 export const emailSchema = z
@@ -13,13 +15,14 @@ export const emailSchema = z
 export const passwordSchema = z
   .string({ error: 'Enter a password.' })
   .min(PASSWORD_MIN_LENGTH, { error: `Use at least ${PASSWORD_MIN_LENGTH} characters.` })
-  .max(200, { error: 'Use at most 200 characters.' });
+  .max(PASSWORD_MAX_LENGTH, { error: `Use at most ${PASSWORD_MAX_LENGTH} characters.` });
 
 export const nameSchema = z
   .string({ error: 'Enter your name.' })
   .trim()
   .min(1, { error: 'Enter your name.' })
-  .max(120, { error: 'Use at most 120 characters.' });
+  .max(120, { error: 'Use at most 120 characters.' })
+  .check(plainText());
 
 export const signUpSchema = z.object({ name: nameSchema, email: emailSchema, password: passwordSchema });
 export type SignUpInput = z.infer<typeof signUpSchema>;
@@ -33,14 +36,18 @@ export const resetPasswordSchema = z.object({ token: tokenSchema, password: pass
 export const changeNameSchema = z.object({ name: nameSchema });
 
 export const changePasswordSchema = z.object({
-  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, { error: 'Enter your current password.' }),
+  currentPassword: z
+    .string({ error: 'Enter your current password.' })
+    .min(1, { error: 'Enter your current password.' })
+    .max(PASSWORD_MAX_LENGTH, { error: `Use at most ${PASSWORD_MAX_LENGTH} characters.` }),
   newPassword: passwordSchema,
 });
 
 export const deleteAccountSchema = z.object({
-  confirmation: z.string().refine((value) => value.trim().toLowerCase() === DELETE_CONFIRMATION, {
-    error: `Type “${DELETE_CONFIRMATION}” to confirm.`,
-  }),
+  confirmation: z
+    .string()
+    .max(100, { error: 'Use at most 100 characters.' })
+    .refine((value) => value.trim().toLowerCase() === DELETE_CONFIRMATION, { error: `Type “${DELETE_CONFIRMATION}” to confirm.` }),
 });
 
 export const roleSchema = z.enum(['member', 'instructor', 'admin'], { error: 'Role must be member, instructor or admin.' });

@@ -1,6 +1,7 @@
 import * as z from 'zod/mini';
 import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from '../../db/schema/enums';
 import { alloySlugs } from './alloys';
+import { plainText, type Lines } from './text';
 
 /** The heat record of a coupon: vocabularies, labels, and the one schema forms and routes share. */
 
@@ -32,8 +33,8 @@ export const MAX_TEMPERATURE_C = 1600;
 const nullable = <T extends z.core.SomeType>(schema: T) => z.pipe(z.optional(z.nullable(schema)), z.transform((value) => value ?? null));
 const number = (message: string, min: number, max: number, rangeMessage: string, integer?: string) =>
   nullable(z.number({ error: message }).check(...(integer ? [z.int({ error: integer })] : []), z.gte(min, { error: rangeMessage }), z.lte(max, { error: rangeMessage })));
-const optionalText = (max: number, message: string) =>
-  z.pipe(z.optional(z.nullable(z.string().check(z.trim(), z.maxLength(max, { error: message })))), z.transform((value) => (value ? value : null)));
+const optionalText = (max: number, message: string, lines: Lines) =>
+  z.pipe(z.optional(z.nullable(z.string().check(z.trim(), z.maxLength(max, { error: message }), plainText(lines)))), z.transform((value) => (value ? value : null)));
 const choice = <T extends readonly [string, ...string[]]>(values: T, message: string) => z.enum(values, { error: message });
 
 /**
@@ -42,7 +43,9 @@ const choice = <T extends readonly [string, ...string[]]>(values: T, message: st
  */
 export const couponInputSchema = z
   .object({
-    title: z.string({ error: 'Give the coupon a title.' }).check(z.trim(), z.minLength(1, { error: 'Give the coupon a title.' }), z.maxLength(160, { error: 'Use at most 160 characters.' })),
+    title: z
+      .string({ error: 'Give the coupon a title.' })
+      .check(z.trim(), z.minLength(1, { error: 'Give the coupon a title.' }), z.maxLength(160, { error: 'Use at most 160 characters.' }), plainText()),
     layers: z
       .array(choice(alloySlugs as [string, ...string[]], 'Choose an alloy from the list.'), { error: 'Add at least one layer.' })
       .check(z.minLength(1, { error: 'Add at least one layer.' }), z.maxLength(MAX_LAYERS, { error: `A coupon has at most ${MAX_LAYERS} layers.` })),
@@ -57,9 +60,9 @@ export const couponInputSchema = z
     volts: number('Voltage is a number.', 1, 300, 'Voltage is between 1 and 300 V.'),
     atmosphere: choice(atmospheres, 'Choose the atmosphere.'),
     argonFlowLpm: number('Flow is a number.', 0, 100, 'Flow is between 0 and 100 L/min.'),
-    atmosphereNote: optionalText(255, 'Use at most 255 characters.'),
+    atmosphereNote: optionalText(255, 'Use at most 255 characters.', 'single'),
     cooling: nullable(choice(coolings, 'Choose how it cooled.')),
-    notes: optionalText(5000, 'Use at most 5000 characters.'),
+    notes: optionalText(5000, 'Use at most 5000 characters.', 'multi'),
     visibility: choice(visibilities, 'Choose who can see the coupon.'),
   })
   .check(

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { MAX_LAYERS } from './coupons';
+import { plainText } from './text';
 import { isPhotoContentType, MAX_UPLOAD_BYTES, outsideMessage, TOO_BIG, UNACCEPTED_TYPE, type RegionInput } from './photos';
 
 /** The requests of the upload path and the region editor, one zod schema each (routes and tests share them). */
@@ -11,7 +12,8 @@ export const uploadRequestSchema = z.object({
     .string({ error: 'Give the file name.' })
     .trim()
     .min(1, { error: 'Give the file name.' })
-    .max(255, { error: 'The file name is too long (at most 255 characters).' }),
+    .max(255, { error: 'The file name is too long (at most 255 characters).' })
+    .check(plainText()),
   contentType: z.string({ error: 'Give the content type of the photo.' }).trim().toLowerCase().max(100),
   size: z
     .number({ error: 'Give the size of the photo in bytes.' })

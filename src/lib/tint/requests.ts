@@ -61,7 +61,7 @@ export const predictRequestSchema = z.discriminatedUnion(
 );
 export type PredictRequest = z.infer<typeof predictRequestSchema>;
 
-export const hexSchema = z.string({ error: 'must be a colour such as #3a6ea5' }).refine(isHexColour, {
+export const hexSchema = z.string({ error: 'must be a colour such as #3a6ea5' }).max(7, { error: 'must be a colour such as #3a6ea5' }).refine(isHexColour, {
   error: 'must be a colour such as #3a6ea5',
 });
 
