@@ -1,31 +1,56 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { getSession } from 'auth-astro/server';
-import { emailSchema } from './lib/account';
+import { PASSWORD_MAX_LENGTH, emailSchema } from './lib/account';
+import { authRoute, isAuthPath, isPlainForm, isSignInAttempt, signInFields } from './lib/server/auth-routes';
 import { clientAddress } from './lib/server/client-address';
 import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
-import { problem, tooManyAttempts } from './lib/server/http';
+import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
 import { startUploadSweeper } from './lib/server/uploads';
-
-const SIGN_IN_ROUTES = ['/api/auth/callback/credentials', '/api/auth/signin/nodemailer'];
 
 /**
  * Sign-in attempts through Auth.js are limited per client address (all attempts) and per e-mail
- * address (failed password attempts, and every request for a sign-in link).
+ * address (failed password attempts, and every request for a sign-in link). Only Auth.js paths
+ * written the way our pages write them are served, and a sign-in must be a plain form, so the
+ * e-mail address counted here is the one Auth.js checks.
  */
 const limitSignIn = defineMiddleware(async (context, next) => {
-  if (context.request.method !== 'POST' || !SIGN_IN_ROUTES.includes(context.url.pathname)) return next();
-  const form = await context.request.clone().formData().catch(() => undefined);
-  const email = emailSchema.safeParse(form?.get('email'));
+  const { pathname } = context.url;
+  if (!isAuthPath(pathname)) return next();
+  const route = authRoute(pathname);
+  if (!route) return problem(404, 'There is nothing at this address.');
+  if (!isSignInAttempt(context.request.method, route)) return next();
+  if (!isPlainForm(context.request.headers.get('content-type'))) {
+    return problem(415, 'Send sign-in requests as a form (application/x-www-form-urlencoded).');
+  }
+  const fields = await signInFields(context.request);
+  const email = emailSchema.safeParse(fields.email);
   const checks: [Limit, string][] = [[limits.signInPerAddress, clientAddress(context)]];
   if (email.success) checks.push([limits.signInPerEmail, email.data]);
   const result = await hitAll(checks);
-  if (!result.allowed) return tooManyAttempts(result.retryAfterSeconds, context.request);
+  if (!result.allowed) return refuseSignIn(context.request, 'TooManyAttempts', tooManyAttemptsProblem(result.retryAfterSeconds));
+  // A password longer than any we accept can't be right; a link only goes to an address we could count.
+  if ((fields.password ?? '').length > PASSWORD_MAX_LENGTH) {
+    return refuseSignIn(context.request, 'CredentialsSignin', problem(400, `password: Use at most ${PASSWORD_MAX_LENGTH} characters.`, 'password'));
+  }
+  if (route.provider === 'nodemailer' && !email.success) {
+    return refuseSignIn(context.request, 'EmailSignin', problem(400, `email: ${email.error.issues[0].message}`, 'email'));
+  }
   const response = await next();
-  const signedIn = context.url.pathname.endsWith('/credentials') && response.status === 302 && !response.headers.get('location')?.includes('error=');
+  const signedIn = route.provider === 'credentials' && response.status === 302 && !response.headers.get('location')?.includes('error=');
   if (signedIn && email.success) await refund(limits.signInPerEmail, email.data);
   return response;
 });
+
+/** A refused sign-in: JSON for scripts; back to the sign-in page with a message for a browser's form post. */
+function refuseSignIn(request: Request, code: string, json: Response): Response {
+  if (!wantsHtml(request)) return json;
+  const location = new URL('/sign-in', request.url);
+  location.searchParams.set('error', code);
+  const retryAfter = json.headers.get('retry-after');
+  if (retryAfter) location.searchParams.set('retryAfter', retryAfter);
+  return new Response(null, { status: 303, headers: { location: `${location.pathname}${location.search}` } });
+}
 
 /** Reads the session once per request; `locals.user` is null when signed out. */
 const loadSession = defineMiddleware(async (context, next) => {

@@ -45,18 +45,23 @@ export function parseValue<S extends Schema>(raw: unknown, schema: S): Parsed<z.
   return { ok: false, response: problem(400, message, field) };
 }
 
-/** A 429 with Retry-After; a small page for form posts, JSON otherwise. */
-export function tooManyAttempts(retryAfterSeconds: number, request: Request): Response {
+const attemptsMessage = (retryAfterSeconds: number) => {
   const minutes = Math.ceil(retryAfterSeconds / 60);
-  const message = `Too many attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
-  const headers = { 'retry-after': String(retryAfterSeconds) };
-  if (wantsHtml(request)) {
-    return new Response(
-      `<!doctype html><meta charset="utf-8"><meta name="viewport" content="width=device-width"><title>Too many attempts · Oxbloom</title><p style="font-family:sans-serif;max-width:32rem;margin:3rem auto">${message} <a href="/">Back to Oxbloom</a></p>`,
-      { status: 429, headers: { ...headers, 'content-type': 'text/html; charset=utf-8' } },
-    );
-  }
-  return json({ error: message }, 429, headers);
+  return `Too many attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`;
+};
+
+/** A JSON 429 with Retry-After. */
+export function tooManyAttemptsProblem(retryAfterSeconds: number): Response {
+  return json({ error: attemptsMessage(retryAfterSeconds) }, 429, { 'retry-after': String(retryAfterSeconds) });
+}
+
+/** A 429 with Retry-After; a small page for a page's form post, JSON otherwise. */
+export function tooManyAttempts(retryAfterSeconds: number, request: Request): Response {
+  if (!wantsHtml(request)) return tooManyAttemptsProblem(retryAfterSeconds);
+  return new Response(
+    `<!doctype html><meta charset="utf-8"><meta name="viewport" content="width=device-width"><title>Too many attempts · Oxbloom</title><p style="font-family:sans-serif;max-width:32rem;margin:3rem auto">${attemptsMessage(retryAfterSeconds)} <a href="/">Back to Oxbloom</a></p>`,
+    { status: 429, headers: { 'retry-after': String(retryAfterSeconds), 'content-type': 'text/html; charset=utf-8' } },
+  );
 }
 
 /** True for a browser's form post or page load, false for fetch/JSON clients. */
