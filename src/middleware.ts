@@ -6,6 +6,7 @@ import { clientAddress } from './lib/server/client-address';
 import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
+import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { startUploadSweeper } from './lib/server/uploads';
 
 /**
@@ -77,6 +78,12 @@ const checkOrigin = defineMiddleware((context, next) => {
   return problem(403, 'Cross-site requests are refused: send this from Oxbloom’s own pages.');
 });
 
+/** Refuses a body over the cap (lib/server/request-limits.ts) before anything reads it. */
+const limitBodies = defineMiddleware(async (context, next) => {
+  if (await bodyTooLarge(context.request)) return problem(413, `The request body is larger than ${MAX_BODY_LABEL}.`);
+  return next();
+});
+
 /** Security headers on every answer (copying the response when its headers are immutable). */
 const secureHeaders = defineMiddleware(async (_context, next) => {
   const original = await next();
@@ -93,4 +100,4 @@ const startTimers = defineMiddleware((_context, next) => {
   return next();
 });
 
-export const onRequest = sequence(startTimers, secureHeaders, checkOrigin, limitSignIn, loadSession);
+export const onRequest = sequence(startTimers, secureHeaders, checkOrigin, limitBodies, limitSignIn, loadSession);

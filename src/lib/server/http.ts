@@ -26,8 +26,21 @@ export function describeZodError(error: z.core.$ZodError): { message: string; fi
   return { message: field ? `${field}: ${issue.message}` : issue.message, field: field || undefined };
 }
 
-/** Reads a JSON body and validates it; a malformed body or a failed check is a 400 naming the field. */
+/** The media type of a request's body, lower-cased and without parameters ("application/json"). */
+export function mediaType(request: Request): string {
+  return (request.headers.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
+}
+
+const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form-data']);
+const isJson = (request: Request) => mediaType(request) === 'application/json';
+const isForm = (request: Request) => FORM_TYPES.has(mediaType(request));
+
+/**
+ * Reads a JSON body and validates it: anything but application/json is a 415, a malformed body or
+ * a failed check a 400 naming the field. (The middleware has already capped the body's size.)
+ */
 export async function parseJson<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
+  if (!isJson(request)) return { ok: false, response: problem(415, 'Send the request body as JSON, with Content-Type: application/json.') };
   let raw: unknown;
   try {
     raw = await request.json();
@@ -71,16 +84,16 @@ export function wantsHtml(request: Request): boolean {
 }
 
 /** Reads a JSON body or, from a plain HTML form, its fields as strings. */
-export async function readBody(request: Request): Promise<unknown> {
-  const type = request.headers.get('content-type') ?? '';
-  if (type.includes('application/x-www-form-urlencoded') || type.includes('multipart/form-data')) {
-    return Object.fromEntries((await request.formData()).entries());
-  }
+async function readBody(request: Request): Promise<unknown> {
+  if (isForm(request)) return Object.fromEntries((await request.formData()).entries());
   return request.json();
 }
 
-/** Like parseJson, for routes that take either JSON or a plain form post. */
+/** Like parseJson, for routes that take either JSON or a plain form post (our pages without JavaScript). */
 export async function parseBody<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
+  if (!isJson(request) && !isForm(request)) {
+    return { ok: false, response: problem(415, 'Send the request body as JSON (application/json) or as a form.') };
+  }
   let raw: unknown;
   try {
     raw = await readBody(request);

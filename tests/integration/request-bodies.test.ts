@@ -1,0 +1,192 @@
+// Request bodies: a size cap that never reads a large body whole, the content types each kind of
+// route accepts, and a cap on every string field.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import http from 'node:http';
+import { eq } from 'drizzle-orm';
+import { coupons } from '../../db/schema';
+import { api, baseUrl, clientAddress, type Jar } from '../support/app';
+import { demo, signedIn } from '../support/auth';
+import { testDatabase } from '../support/database';
+
+const { db, pool } = testDatabase();
+afterAll(() => pool.end());
+
+const unique = () => `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 7)}`;
+const MEGABYTE = 1024 * 1024;
+// The cap under test: 64 kB for any JSON or form body (src/lib/server/request-limits.ts).
+const LIMIT = 64 * 1024;
+
+const aCoupon = (title: string) => ({
+  title,
+  layers: ['ti-grade-2'],
+  surfacePrep: 'ground',
+  surfaceGrit: 400,
+  process: 'oven',
+  temperatureC: 540,
+  temperatureMethod: 'thermocouple',
+  holdSeconds: 1800,
+  atmosphere: 'air',
+  visibility: 'private',
+});
+
+let member: Jar;
+beforeAll(async () => {
+  member = await signedIn(demo.member);
+});
+
+const cookieOf = (jar: Jar) => [...jar.cookies].map(([name, value]) => `${name}=${value}`).join('; ');
+
+/**
+ * Sends a JSON body of about `total` bytes (`head`, then junk, then a closing `"}`) in 16 kB
+ * chunks, with a Content-Length or, when `chunked`, with none (chunked transfer encoding), as a
+ * client that reads the answer while still sending does (as curl does); reports the answer's
+ * status and body and how many bytes had been handed to the socket when the answer came.
+ */
+function sendBody(path: string, jar: Jar, head: string, total: number, chunked: boolean): Promise<{ status: number; body: string; sentBeforeAnswer: number }> {
+  return new Promise((resolve, reject) => {
+    const tail = '"}';
+    const junkBytes = total - head.length - tail.length;
+    const headers: Record<string, string> = { 'content-type': 'application/json', origin: baseUrl, cookie: cookieOf(jar), 'x-forwarded-for': clientAddress };
+    if (chunked) headers['transfer-encoding'] = 'chunked';
+    else headers['content-length'] = String(total);
+    const request = http.request(new URL(path, baseUrl), { method: 'POST', headers });
+    let sent = 0;
+    let answered = false;
+    request.on('response', (response) => {
+      answered = true;
+      const sentBeforeAnswer = sent;
+      let body = '';
+      response.setEncoding('utf8');
+      response.on('data', (chunk) => (body += chunk));
+      response.on('end', () => {
+        request.destroy();
+        resolve({ status: response.statusCode ?? 0, body, sentBeforeAnswer });
+      });
+    });
+    request.on('error', (error) => {
+      if (!answered) reject(error);
+    });
+    const chunk = Buffer.alloc(16 * 1024, 'x');
+    let junkSent = 0;
+    const pump = () => {
+      if (sent === 0) {
+        request.write(head);
+        sent += head.length;
+      }
+      while (!answered && junkSent < junkBytes) {
+        const piece = junkBytes - junkSent >= chunk.length ? chunk : chunk.subarray(0, junkBytes - junkSent);
+        junkSent += piece.length;
+        sent += piece.length;
+        if (!request.write(piece)) return void request.once('drain', pump);
+      }
+      if (!answered) request.end(tail);
+    };
+    pump();
+  });
+}
+
+describe('the body size cap', () => {
+  it.each([
+    ['with its Content-Length', false],
+    ['streamed with no Content-Length', true],
+  ])('refuses a valid coupon with 40 MB of junk beside it, %s: 413 long before it is all sent, and nothing saved', async (_label, chunked) => {
+    const title = `Junk-laden coupon ${unique()}`;
+    const head = JSON.stringify(aCoupon(title)).slice(0, -1) + ',"junk":"';
+    const result = await sendBody('/api/coupons', member, head, 40 * MEGABYTE, chunked);
+    expect(result.status).toBe(413);
+    expect(JSON.parse(result.body)).toEqual({ error: expect.stringContaining('64 kB') });
+    // The app answers at the cap and reads no further; what was in flight (socket buffers) is at most a few MB.
+    expect(result.sentBeforeAnswer).toBeLessThan(8 * MEGABYTE);
+    expect(await db.select().from(coupons).where(eq(coupons.title, title))).toEqual([]);
+  });
+
+  it('accepts a body just under the cap and refuses one just over it', async () => {
+    const under = { ...aCoupon(`Near the cap ${unique()}`), notes: 'n'.repeat(4000), padding: ' '.repeat(LIMIT - 5000) };
+    const underBody = JSON.stringify(under);
+    expect(underBody.length).toBeLessThan(LIMIT);
+    const accepted = await api('/api/coupons', { method: 'POST', jar: member, headers: { 'content-type': 'application/json' }, body: underBody });
+    expect(accepted.status).toBe(201);
+    await db.delete(coupons).where(eq(coupons.id, (await accepted.json()).id));
+
+    const over = JSON.stringify({ ...under, padding: ' '.repeat(LIMIT) });
+    expect((await api('/api/coupons', { method: 'POST', jar: member, headers: { 'content-type': 'application/json' }, body: over })).status).toBe(413);
+  });
+
+  it('caps form posts to pages too', async () => {
+    const response = await api('/sign-up', { form: { name: 'Big', email: `big-${unique()}@oxbloom.test`, password: 'p'.repeat(LIMIT + 1) } });
+    expect(response.status).toBe(413);
+  });
+});
+
+describe('content types', () => {
+  const ladder = { alloy: 'ti-grade-2', fromNm: 0, toNm: 50, stepNm: 10 };
+
+  it.each([
+    ['text/plain', 'text/plain'],
+    ['a form', 'application/x-www-form-urlencoded'],
+    ['no content type', undefined],
+  ])('a JSON route refuses %s with 415', async (_label, type) => {
+    const headers: Record<string, string> = type ? { 'content-type': type } : {};
+    const response = await api('/api/tint/ladder', { method: 'POST', headers, body: new TextEncoder().encode(JSON.stringify(ladder)) });
+    expect(response.status).toBe(415);
+    expect(await response.json()).toEqual({ error: expect.stringContaining('application/json') });
+  });
+
+  it('a JSON route takes JSON with a charset', async () => {
+    const response = await api('/api/tint/ladder', { method: 'POST', headers: { 'content-type': 'application/json; charset=utf-8' }, body: JSON.stringify(ladder) });
+    expect(response.status).toBe(200);
+  });
+
+  it('a route for our no-JavaScript forms takes a form and JSON, and refuses other types with 415', async () => {
+    expect((await api('/api/account/forgot-password', { form: { email: `form-${unique()}@oxbloom.test` } })).status).toBe(202);
+    expect((await api('/api/account/forgot-password', { json: { email: `json-${unique()}@oxbloom.test` } })).status).toBe(202);
+    const plain = await api('/api/account/forgot-password', { method: 'POST', headers: { 'content-type': 'text/plain' }, body: `email=plain-${unique()}@oxbloom.test` });
+    expect(plain.status).toBe(415);
+    expect(await plain.json()).toEqual({ error: expect.any(String) });
+  });
+
+  it('the sign-out button (a form post with no fields) still signs out', async () => {
+    const jar = await signedIn(demo.member2);
+    const response = await api('/api/account/sign-out', { jar, method: 'POST', headers: { accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded' }, body: '' });
+    expect(response.status).toBe(303);
+    expect((await api('/api/account', { jar })).status).toBe(401);
+  });
+});
+
+describe('string fields are capped', () => {
+  it('refuses a current password longer than any password we accept', async () => {
+    const response = await api('/api/account/password', { jar: member, json: { currentPassword: 'c'.repeat(201), newPassword: 'a long enough password' } });
+    expect(response.status).toBe(400);
+    expect(await response.json()).toEqual({ error: 'currentPassword: Use at most 200 characters.', field: 'currentPassword' });
+  });
+
+  it('refuses an over-long delete confirmation, naming its field and the cap', async () => {
+    const response = await api('/api/account', { method: 'DELETE', jar: member, json: { confirmation: 'x'.repeat(5000) } });
+    expect(response.status).toBe(400);
+    expect(await response.json()).toEqual({ error: expect.stringContaining('at most'), field: 'confirmation' });
+  });
+
+  it('refuses an over-long colour in a tint request', async () => {
+    const response = await api('/api/tint/estimate', { json: { alloy: 'ti-grade-2', hex: `#${'a'.repeat(3000)}` } });
+    expect(response.status).toBe(400);
+    expect((await response.json()).field).toBe('hex');
+  });
+
+  it('refuses a coupon title that reverses its own reading order, naming the field', async () => {
+    const response = await api('/api/coupons', { jar: member, json: aCoupon(`Straw ${unique()} \u202Etset`) });
+    expect(response.status).toBe(400);
+    expect((await response.json()).field).toBe('title');
+  });
+
+  it('refuses a name made only of invisible characters, by the API and by the account page', async () => {
+    const response = await api('/api/account', { method: 'PATCH', jar: member, json: { name: '\u200B\u3164' } });
+    expect(response.status).toBe(400);
+    expect((await response.json()).field).toBe('name');
+    expect((await api('/account', { jar: member, form: { intent: 'name', name: '\u200B\u3164' } })).status).toBe(400);
+  });
+
+  it('the library page ignores an absurd page number instead of failing', async () => {
+    expect((await api('/coupons?page=1e300', { jar: member })).status).toBe(200);
+    expect((await api('/coupons?page=99999999999999999999', { jar: member })).status).toBe(200);
+  });
+});
