@@ -1,6 +1,7 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { getSession } from 'auth-astro/server';
 import { PASSWORD_MAX_LENGTH, emailSchema } from './lib/account';
+import { allowedMethods, asJsonError, errorMessage, needsJson } from './lib/server/api-errors';
 import { authRoute, isAuthPath, isPlainForm, isSignInAttempt, signInFields } from './lib/server/auth-routes';
 import { clientAddress } from './lib/server/client-address';
 import { limits } from './lib/server/limits';
@@ -69,7 +70,8 @@ const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /**
  * Every state-changing request must come from our own pages: its Origin must be the app's own.
- * (Astro's checkOrigin covers form posts only; this covers JSON too.)
+ * This covers form posts, JSON and bodiless requests alike (Astro's own check, which covers form
+ * posts only and answers in plain text, is switched off in astro.config.mjs).
  */
 const checkOrigin = defineMiddleware((context, next) => {
   if (SAFE_METHODS.has(context.request.method)) return next();
@@ -82,6 +84,32 @@ const checkOrigin = defineMiddleware((context, next) => {
 const limitBodies = defineMiddleware(async (context, next) => {
   if (await bodyTooLarge(context.request)) return problem(413, `The request body is larger than ${MAX_BODY_LABEL}.`);
   return next();
+});
+
+/**
+ * Every error under /api/ is JSON `{error, field?}`: Astro's 404 page for an unknown route, its
+ * empty 404 for a method the route lacks (a 405 naming the methods it has), a thrown error (500)
+ * and any other error that isn't JSON yet.
+ */
+const jsonErrors = defineMiddleware(async (context, next) => {
+  if (!context.url.pathname.startsWith('/api/')) return next();
+  let response: Response;
+  try {
+    response = await next();
+  } catch (error) {
+    console.error(error);
+    return problem(500, errorMessage(500));
+  }
+  if (context.routePattern === '/404') return needsJson(response) ? asJsonError(response, 'There is no API route at this address.') : response;
+  if (response.status === 404 && response.body === null) {
+    const allowed = await allowedMethods(context.routePattern);
+    if (allowed && !allowed.includes(context.request.method)) {
+      const refused = problem(405, `This address takes ${allowed.join(', ')} only.`);
+      refused.headers.set('allow', allowed.join(', '));
+      return refused;
+    }
+  }
+  return needsJson(response) ? asJsonError(response) : response;
 });
 
 /** Security headers on every answer (copying the response when its headers are immutable). */
@@ -100,4 +128,4 @@ const startTimers = defineMiddleware((_context, next) => {
   return next();
 });
 
-export const onRequest = sequence(startTimers, secureHeaders, checkOrigin, limitBodies, limitSignIn, loadSession);
+export const onRequest = sequence(startTimers, secureHeaders, jsonErrors, checkOrigin, limitBodies, limitSignIn, loadSession);
