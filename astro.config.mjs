@@ -21,5 +21,8 @@ export default defineConfig({
   },
   vite: {
     plugins: [tailwindcss()],
+    // Page scripts are always files, never inlined into the HTML, so the Content-Security-Policy
+    // needs no hash for them (src/lib/server/security-headers.ts). Other assets keep Vite's rule.
+    build: { assetsInlineLimit: (file) => (/\.[cm]?js$/.test(file) ? false : undefined) },
   },
 });

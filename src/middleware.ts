@@ -4,10 +4,12 @@ import { PASSWORD_MAX_LENGTH, emailSchema } from './lib/account';
 import { allowedMethods, asJsonError, errorMessage, needsJson } from './lib/server/api-errors';
 import { authRoute, isAuthPath, isPlainForm, isSignInAttempt, signInFields } from './lib/server/auth-routes';
 import { clientAddress } from './lib/server/client-address';
+import { config } from './lib/server/config';
 import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
 import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
+import { securityHeaders } from './lib/server/security-headers';
 import { startUploadSweeper } from './lib/server/uploads';
 
 /**
@@ -112,13 +114,23 @@ const jsonErrors = defineMiddleware(async (context, next) => {
   return needsJson(response) ? asJsonError(response) : response;
 });
 
-/** Security headers on every answer (copying the response when its headers are immutable). */
-const secureHeaders = defineMiddleware(async (_context, next) => {
+/** Pages and routes of accounts and sign-in: never kept by a cache, signed in or not. */
+const PERSONAL_PATHS = /^\/(account|admin|sign-in|sign-up|forgot-password|reset-password|confirm-email|api\/account|api\/admin|api\/auth)(\/|$)/;
+let storageOrigin: string | undefined;
+
+/**
+ * Security headers on every answer (lib/server/security-headers.ts), and `Cache-Control: no-store`
+ * on every answer to someone signed in and on every account page. The response is copied, as its
+ * headers may be immutable.
+ */
+const secureHeaders = defineMiddleware(async (context, next) => {
   const original = await next();
   const response = new Response(original.body, original);
-  response.headers.set('x-content-type-options', 'nosniff');
-  response.headers.set('referrer-policy', 'same-origin');
-  response.headers.set('x-frame-options', 'DENY');
+  storageOrigin ??= new URL(config().S3_ENDPOINT).origin;
+  for (const [name, value] of Object.entries(securityHeaders({ storageOrigin, https: context.url.protocol === 'https:', dev: import.meta.env.DEV }))) {
+    response.headers.set(name, value);
+  }
+  if (context.locals.user || PERSONAL_PATHS.test(context.url.pathname)) response.headers.set('cache-control', 'no-store');
   return response;
 });
 
