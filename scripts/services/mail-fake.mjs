@@ -1,8 +1,10 @@
 // The local SMTP fake: accepts every message on loopback, keeps each as an .eml file in
-// MAIL_FAKE_DIR, and shows them on a small inbox page (MAIL_FAKE_INBOX_PORT) on loopback.
+// MAIL_FAKE_DIR, and shows them on a small inbox page (MAIL_FAKE_INBOX_PORT) on loopback. Each SMTP
+// session is logged when it closes to MAIL_FAKE_DIR/sessions.log, as "<time> mail" or, for a
+// session that sent nothing (a connection check), "<time> probe".
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
-import { mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { appendFileSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import path from 'node:path';
 
@@ -10,12 +12,22 @@ const smtpPort = Number(process.env.MAIL_FAKE_SMTP_PORT ?? 2525);
 const inboxPort = Number(process.env.MAIL_FAKE_INBOX_PORT ?? 4580);
 const directory = process.env.MAIL_FAKE_DIR ?? path.resolve('.data/dev/mail');
 mkdirSync(directory, { recursive: true });
+const sessionLog = path.join(directory, 'sessions.log');
+writeFileSync(sessionLog, '', { flag: 'a' });
+const sentMail = new Set();
 
 let sequence = 0;
 const smtp = new SMTPServer({
   authOptional: true,
   disabledCommands: ['STARTTLS'],
   banner: 'Oxbloom local mail fake',
+  onMailFrom(_address, session, callback) {
+    sentMail.add(session.id);
+    callback();
+  },
+  onClose(session) {
+    appendFileSync(sessionLog, `${Date.now()} ${sentMail.delete(session.id) ? 'mail' : 'probe'}\n`);
+  },
   onData(stream, _session, callback) {
     const chunks = [];
     stream.on('data', (chunk) => chunks.push(chunk));
