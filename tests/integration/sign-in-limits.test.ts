@@ -101,4 +101,23 @@ describe('sign-in forms written to slip past the limit', () => {
     expect(response.status).toBe(400);
     expect(await response.json()).toEqual({ error: expect.stringContaining('password'), field: 'password' });
   });
+
+  it('a browser whose sign-in is refused goes back to the sign-in page, which says why and for how long', async () => {
+    const email = newAddress();
+    for (let attempt = 0; attempt < 5; attempt += 1) {
+      await postRaw('/api/auth/callback/credentials', 'application/x-www-form-urlencoded', (token) => new URLSearchParams({ csrfToken: token, email, password: wrong }).toString(), addressFor(attempt));
+    }
+    const jar = newJar();
+    const from = addressFor(9);
+    const token = await csrfToken(jar, from);
+    const refused = await api('/api/auth/callback/credentials', { jar, from, headers: { accept: 'text/html' }, form: { csrfToken: token, email, password: wrong } });
+    expect(refused.status).toBe(303);
+    const location = new URL(refused.headers.get('location')!, baseUrl);
+    expect(location.pathname).toBe('/sign-in');
+    expect(location.searchParams.get('error')).toBe('TooManyAttempts');
+    // Source: src/lib/server/limits.ts, the rule under test: a 15-minute window.
+    expect(Number(location.searchParams.get('retryAfter'))).toBeGreaterThan(14 * 60);
+    const page = await (await api(location.pathname + location.search)).text();
+    expect(page).toContain('Too many sign-in attempts. Try again in 15 minutes.');
+  });
 });
