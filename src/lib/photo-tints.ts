@@ -1,5 +1,6 @@
 import { findTintModel, thicknessCandidates } from './tint';
-import type { Lab, NearestTint } from './photos';
+import type { Lab } from './colour';
+import type { NearestTint } from './photos';
 
 /** Beyond this colour difference no band is named: the colour is not one the alloy's film shows. */
 const MAX_NAMED_DELTA_E00 = 10;

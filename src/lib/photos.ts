@@ -2,6 +2,7 @@
  * Photos of coupons: what may be uploaded, and the shapes the API answers with. Pure and free of
  * zod, so islands can import it cheaply; the request schemas are in photo-requests.ts.
  */
+import type { Lab } from './colour';
 
 /** Content types accepted for upload, with the file extension their stored original gets. */
 export const PHOTO_TYPES = {
@@ -92,12 +93,6 @@ export interface RegionView extends Rectangle {
   id: number;
   kind: RegionKind;
   layerId: number | null;
-}
-
-export interface Lab {
-  l: number;
-  a: number;
-  b: number;
 }
 
 /** One extracted colour: CIELAB (D65) and OKLab, its share of the region's used pixels, and its spread. */

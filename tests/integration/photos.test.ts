@@ -22,7 +22,7 @@ import { testDatabase } from '../support/database';
 import { deleteTestCoupons, insertCoupon, storedPhoto, uploadPhoto, urlExpiry, type TestCoupon } from '../support/photos';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
 
-// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/analysis/colour-references.test.ts).
+// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/colour/delta-e.test.ts and conversions.test.ts).
 const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const deltaE = (swatch: SwatchView, hex: string) => ciede2000(toLab65(hex)!, { mode: 'lab65', ...swatch.lab });

@@ -1,4 +1,5 @@
-import { toSwatch, type OklabPoint } from './colour';
+import type { Oklab } from '../colour';
+import type { Matrix3 } from '../matrix';
 import { chooseCentres, FIT_SAMPLE_SIZE, samplePoints } from './choose-clusters';
 import { assignPoints } from './kmeans';
 import { collectPixels, type PixelImage } from './pixels';
@@ -14,8 +15,8 @@ import {
   type Swatch,
   type WhiteBalance,
 } from './schemas';
+import { toSwatch } from './swatch';
 import { whiteBalanceMatrix } from './white-balance';
-import type { Matrix3 } from './matrix3';
 
 /** The seed every analysis starts from, so the same photo always gives the same swatches. */
 const ANALYSIS_SEED = 0x0b100d;
@@ -66,7 +67,7 @@ function analyseRegion(image: PixelImage, region: Region, matrix: Matrix3 | unde
 /** The mean of OKLab points as a swatch with share 1 and the RMS distance about it. */
 function meanSwatch(oklab: Float64Array): Swatch {
   const n = oklab.length / 3;
-  const mean: OklabPoint = { l: 0, a: 0, b: 0 };
+  const mean: Oklab = { l: 0, a: 0, b: 0 };
   for (let i = 0; i < oklab.length; i += 3) {
     mean.l += oklab[i];
     mean.a += oklab[i + 1];

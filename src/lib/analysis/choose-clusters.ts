@@ -1,4 +1,4 @@
-import { deltaE2000 } from './colour';
+import { deltaE2000, oklabToLab } from '../colour';
 import { assignPoints, fitKMeans, type Assignment } from './kmeans';
 
 /**
@@ -29,7 +29,8 @@ export function samplePoints(points: Float64Array, size: number, random: () => n
   return sample;
 }
 
-const centreOf = (centres: Float64Array, c: number) => ({ l: centres[c * 3], a: centres[c * 3 + 1], b: centres[c * 3 + 2] });
+/** Cluster `c`'s centre as CIELAB (D65), for ΔE00. */
+const centreLab = (centres: Float64Array, c: number) => oklabToLab({ l: centres[c * 3], a: centres[c * 3 + 1], b: centres[c * 3 + 2] });
 
 /** Ashman's D for clusters `i` and `j`, their points projected on the line between their centres. */
 export function bimodalSeparation(points: Float64Array, assignment: Assignment, i: number, j: number): number {
@@ -59,7 +60,7 @@ export function allClustersDistinct(points: Float64Array, centres: Float64Array)
   for (let i = 0; i < k; i += 1) {
     if (assignment.counts[i] === 0) return false;
     for (let j = i + 1; j < k; j += 1) {
-      if (deltaE2000(centreOf(assignment.means, i), centreOf(assignment.means, j)) < CLUSTER_RULE.minDeltaE00) return false;
+      if (deltaE2000(centreLab(assignment.means, i), centreLab(assignment.means, j)) < CLUSTER_RULE.minDeltaE00) return false;
       if (bimodalSeparation(points, assignment, i, j) < CLUSTER_RULE.minSeparation) return false;
     }
   }

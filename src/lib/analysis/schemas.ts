@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { LabSchema } from '../colour';
 
 /** Most colours reported per region. */
 export const MAX_SWATCHES = 5;
@@ -32,8 +33,6 @@ export const AnalysisOptionsSchema = z.object({
 });
 export type AnalysisOptions = z.input<typeof AnalysisOptionsSchema>;
 export type ParsedAnalysisOptions = z.output<typeof AnalysisOptionsSchema>;
-
-const LabSchema = z.object({ l: z.number(), a: z.number(), b: z.number() });
 
 /** One extracted colour; `lab` is CIELAB under D65, `spread` the RMS OKLab distance of its pixels from it. */
 export const SwatchSchema = z.object({

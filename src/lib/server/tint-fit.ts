@@ -1,6 +1,7 @@
 import { and, eq, inArray, isNotNull, or, sql, type SQL } from 'drizzle-orm';
 import { alloys, coupons, swatches } from '../../../db/schema';
-import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit, type Lab } from '../tint';
+import type { Lab } from '../colour';
+import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit } from '../tint';
 import type { SessionUser } from './authorise';
 import { db } from './db';
 

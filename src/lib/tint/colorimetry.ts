@@ -1,12 +1,8 @@
+import { bradfordAdaptation, colourFromXyz65, D65_WHITE, scalingAdaptation, type DisplayColour, type Xyz } from '../colour';
+import { applyMatrix, multiplyMatrices, type Matrix3 } from '../matrix';
 import { xBar, yBar, zBar } from './data/cie-1931-2deg';
 import { illuminantSpectrum, type Illuminant } from './illuminants';
 import { WAVELENGTH_COUNT } from './spectral-grid';
-
-export interface Xyz {
-  x: number;
-  y: number;
-  z: number;
-}
 
 /** Per-wavelength weights S(λ)·x̄/ȳ/z̄(λ), scaled so a perfect reflector has Y = 100. */
 export interface WeightingTable {
@@ -56,4 +52,25 @@ export function reflectanceToXyz(reflectance: ArrayLike<number>, illuminant: Ill
 /** The white point of an illuminant from the tables: the XYZ of a perfect reflector. */
 export function whitePoint(illuminant: Illuminant): Xyz {
   return reflectanceToXyz(new Float64Array(WAVELENGTH_COUNT).fill(1), illuminant);
+}
+
+const asVector = ({ x, y, z }: Xyz) => [x, y, z];
+
+/**
+ * From the tables' XYZ (Y = 100 white) to XYZ against sRGB's D65 white (Y = 1). The 5 nm tables'
+ * D65 white (95.043, 100, 108.880) is not quite sRGB's (95.046, 100, 108.906, from x = 0.3127,
+ * y = 0.3290); a per-channel scale maps one onto the other so a perfect reflector is exactly
+ * L* = 100, a* = b* = 0 and #ffffff. Under illuminant A the colour is shown as an eye fully
+ * adapted to that warm light sees it (Bradford adaptation from A's white to D65's), then scaled alike.
+ */
+const tablesToSrgbWhite = scalingAdaptation(asVector(whitePoint('D65')), D65_WHITE);
+const toSrgbWhite: Record<Illuminant, Matrix3> = {
+  D65: tablesToSrgbWhite,
+  A: multiplyMatrices(tablesToSrgbWhite, bradfordAdaptation(asVector(whitePoint('A')), asVector(whitePoint('D65')))),
+};
+
+/** The display colour of tristimulus values (Y = 100 white) seen under the given illuminant. */
+export function colourFromXyz(xyz: Xyz, illuminant: Illuminant): DisplayColour {
+  const [x, y, z] = applyMatrix(toSrgbWhite[illuminant], asVector(xyz));
+  return colourFromXyz65({ x, y, z });
 }

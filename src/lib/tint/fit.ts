@@ -1,8 +1,8 @@
-import type { Lab } from './colour';
+import type { Lab } from '../colour';
+import { applyMatrix, invertMatrix, quadraticForm } from '../matrix';
 import { arrheniusTerm, type AnodizeGrowth, type HeatGrowthLaw } from './growth';
 import { mostLikelyCandidate, thicknessCandidates } from './inverse';
 import { findTintModel, type HeatGrowthPrior, type TintModel } from './models';
-import { invertMatrix, multiplyVector, quadraticForm } from './small-matrix';
 
 /** One coupon's heat record and its measured film: a thickness, or a swatch colour to invert. */
 export type CouponObservation =
@@ -112,7 +112,7 @@ function robustMapFit(points: readonly Point[], mean: readonly number[], sd: rea
       }
     }
     inverse = invertMatrix(normal);
-    const solution = multiplyVector(inverse, rhs);
+    const solution = applyMatrix(inverse, rhs);
     const change = Math.max(...solution.map((value, r) => Math.abs(value - beta[r])));
     solution.forEach((value, r) => (beta[r] = value));
 

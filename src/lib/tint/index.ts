@@ -1,8 +1,6 @@
 /** The tint science: pure, framework-free; safe to import from islands and routes alike. */
 export { alloys, alloyFamilies, findAlloy, isAlloySlug, type Alloy, type AlloyFamily, type AlloySlug } from './alloys';
 export { tintModels, findTintModel, missingModelReason, type TintModel, type HeatGrowthPrior } from './models';
-export { colourFromXyz, colourFromLab, hexToLab, type Lab, type TintColour } from './colour';
-export { deltaE2000 } from './delta-e';
 export { illuminants, type Illuminant } from './illuminants';
 export { filmSystems, type FilmSystemId } from './film-systems';
 export { familyLabels, ladderAlloyOptions, plannerAlloyOptions, type AlloyOption, type AlloyOptionGroup } from './alloy-options';

@@ -1,5 +1,4 @@
-import type { Lab } from './colour';
-import { deltaE2000 } from './delta-e';
+import { deltaE2000, type Lab } from '../colour';
 import type { FilmSystemId } from './film-systems';
 import { referenceLadder, type ReferenceLadder } from './ladder';
 import type { TintName } from './tint-names';

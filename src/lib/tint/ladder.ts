@@ -1,5 +1,5 @@
-import { reflectanceToXyz, weightingTable } from './colorimetry';
-import { colourFromXyz, type TintColour } from './colour';
+import type { DisplayColour } from '../colour';
+import { colourFromXyz, reflectanceToXyz, weightingTable } from './colorimetry';
 import { filmStack, type FilmSystemId } from './film-systems';
 import type { Illuminant } from './illuminants';
 import { reflectanceSpectrum, weightedReflectanceSeries } from './thin-film';
@@ -8,7 +8,7 @@ import { interferenceOrders, tintName, type TintName } from './tint-names';
 /** The thickest film the model describes; colours have washed out to grey well before this. */
 export const MAX_THICKNESS_NM = 1000;
 
-export interface LadderStep extends TintColour {
+export interface LadderStep extends DisplayColour {
   thicknessNm: number;
   name: TintName;
 }
@@ -28,10 +28,10 @@ export function ladderColours(
   stepNm: number,
   count: number,
   illuminant: Illuminant = 'D65',
-): TintColour[] {
+): DisplayColour[] {
   const table = weightingTable(illuminant);
   const sums = weightedReflectanceSeries(filmStack(system), [table.x, table.y, table.z], fromNm, stepNm, count);
-  const colours: TintColour[] = new Array(count);
+  const colours: DisplayColour[] = new Array(count);
   for (let t = 0; t < count; t += 1) {
     colours[t] = colourFromXyz({ x: sums[t * 3], y: sums[t * 3 + 1], z: sums[t * 3 + 2] }, illuminant);
   }
@@ -39,7 +39,7 @@ export function ladderColours(
 }
 
 /** The colour of one film thickness, computed directly. */
-export function colourAt(system: FilmSystemId, thicknessNm: number, illuminant: Illuminant = 'D65'): TintColour {
+export function colourAt(system: FilmSystemId, thicknessNm: number, illuminant: Illuminant = 'D65'): DisplayColour {
   return colourFromXyz(reflectanceToXyz(reflectanceSpectrum(filmStack(system), thicknessNm), illuminant), illuminant);
 }
 
@@ -49,7 +49,7 @@ export function colourAt(system: FilmSystemId, thicknessNm: number, illuminant: 
  */
 export interface ReferenceLadder {
   stepNm: number;
-  colours: TintColour[];
+  colours: DisplayColour[];
   names: TintName[];
 }
 
@@ -81,7 +81,7 @@ export function tintNameAt(system: FilmSystemId, thicknessNm: number): TintName 
 }
 
 /** The D65 colour of a thickness from the reference ladder (nearest 0.5 nm): fast, for searches. */
-export function referenceColourAt(system: FilmSystemId, thicknessNm: number): TintColour {
+export function referenceColourAt(system: FilmSystemId, thicknessNm: number): DisplayColour {
   const ladder = referenceLadder(system);
   return ladder.colours[referenceIndex(ladder, thicknessNm)];
 }

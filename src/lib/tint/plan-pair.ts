@@ -1,5 +1,4 @@
-import type { Lab } from './colour';
-import { deltaE2000 } from './delta-e';
+import { deltaE2000, type Lab } from '../colour';
 import { heatFitPrediction, heatPriorPrediction, type GrowthFit } from './fit';
 import { referenceColourAt, tintNameAt } from './ladder';
 import type { TintModel } from './models';

@@ -1,4 +1,4 @@
-import type { Lab } from './colour';
+import type { Lab } from '../colour';
 import { heatFitPrediction, heatPriorPrediction, type GrowthFit } from './fit';
 import { colourAt, tintNameAt } from './ladder';
 import type { TintModel } from './models';

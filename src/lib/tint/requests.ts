@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { hexToLab, isHexColour, type Lab } from './colour';
+import { hexToLab, isHexColour, type Lab } from '../colour';
 import { illuminants } from './illuminants';
 import { MAX_THICKNESS_NM } from './ladder';
 import { findTintModel, missingModelReason, type ModelPart, type TintModel } from './models';

@@ -1,5 +1,5 @@
 /** The JSON bodies of the tint routes, built from validated requests (rounded for the wire). */
-import { hexToLab } from './colour';
+import { hexToLab } from '../colour';
 import type { GrowthFit } from './fit';
 import { thicknessCandidates } from './inverse';
 import { buildLadder } from './ladder';

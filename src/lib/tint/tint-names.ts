@@ -1,4 +1,4 @@
-import type { Lab } from './colour';
+import { oklabToOklch, type Lab } from '../colour';
 
 /**
  * Tint band names: the product's own vocabulary, built from the trade's colour words.
@@ -43,15 +43,9 @@ const NEUTRAL_CHROMA = 0.03;
 /** Below this chroma a yellow reads as pale (pale straw, pale gold). */
 const PALE_CHROMA = 0.06;
 
-export function oklch(oklab: Lab): { l: number; c: number; h: number } {
-  const c = Math.hypot(oklab.a, oklab.b);
-  const h = ((Math.atan2(oklab.b, oklab.a) * 180) / Math.PI + 360) % 360;
-  return { l: oklab.l, c, h };
-}
-
 /** Hue family of an OKLab colour; hue limits in degrees of OKLCh hue. */
 export function hueFamily(oklab: Lab): HueFamily {
-  const { c, h } = oklch(oklab);
+  const { c, h } = oklabToOklch(oklab);
   if (c < NEUTRAL_CHROMA) return 'neutral';
   if (h >= 70 && h < 125) return 'yellow';
   if (h >= 40 && h < 70) return 'orange';
@@ -74,7 +68,7 @@ const ordinal = (order: number) => (order === 2 ? 'second-order' : order === 3 ?
  * dark one "brown"; a dark blue "deep blue", a pale one "light blue").
  */
 export function tintName(oklab: Lab, order: number): TintName {
-  const { l, c, h } = oklch(oklab);
+  const { l, c, h } = oklabToOklch(oklab);
   if (c < NEUTRAL_CHROMA) return order <= 1 ? 'silver' : 'grey';
   if (order <= 1) {
     if (h >= 70 && h < 125) return c < PALE_CHROMA ? 'pale straw' : c < GOLD_CHROMA && l >= 0.5 ? 'straw' : 'gold';

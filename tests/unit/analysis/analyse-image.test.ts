@@ -4,7 +4,7 @@ import { converter, differenceCiede2000 } from 'culori';
 import { analyseImage, AnalysisInputError, PIXEL_LIMITS, type Swatch } from '../../../src/lib/analysis';
 import { couponScene, GREY_CARD, illuminantACast, renderScene, TINTS, type Scene } from '../../fixtures/synthetic-photos';
 
-// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 — both checked in colour-references.test.ts.
+// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 — both checked in tests/unit/colour/ (delta-e.test.ts, conversions.test.ts).
 const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const deltaE = (swatch: Swatch, hex: string) => ciede2000(toLab65(hex)!, { mode: 'lab65', ...swatch.lab });

@@ -13,7 +13,7 @@ import { analyseDecoded, analysePhoto, ImageRejected, MAX_INPUT_PIXELS, processP
 import { isHeic } from '../../../src/lib/server/heic';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../../fixtures/synthetic-photos';
 
-// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in colour-references.test.ts).
+// ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/colour/delta-e.test.ts and conversions.test.ts).
 const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const deltaE = (swatch: Swatch, hex: string) => ciede2000(toLab65(hex)!, { mode: 'lab65', ...swatch.lab });

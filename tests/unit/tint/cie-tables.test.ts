@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { xBar, yBar, zBar } from '../../../src/lib/tint/data/cie-1931-2deg';
 import { d65 } from '../../../src/lib/tint/data/illuminant-d65';
-import { whitePoint } from '../../../src/lib/tint/colorimetry';
-import { colourFromXyz } from '../../../src/lib/tint/colour';
+import { colourFromXyz, whitePoint } from '../../../src/lib/tint/colorimetry';
 import { illuminantA } from '../../../src/lib/tint/illuminants';
 import { gridIndex } from '../../../src/lib/tint/spectral-grid';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { deltaE2000 } from '../../../src/lib/tint/delta-e';
+import { deltaE2000 } from '../../../src/lib/colour';
 import { heatThicknessNm } from '../../../src/lib/tint/growth';
 import { referenceColourAt } from '../../../src/lib/tint/ladder';
 import { findTintModel } from '../../../src/lib/tint/models';

@@ -1,27 +1,12 @@
-// The yardsticks the analysis tests measure with: CIEDE2000, CIELAB (D65), OKLab and the sRGB
-// transfer function, as computed by culori, checked against their published definitions.
+// The yardsticks the analysis tests measure with: CIELAB (D65), OKLab and the sRGB transfer function,
+// as computed by culori, checked against their published definitions (CIEDE2000: delta-e.test.ts).
 import { describe, expect, it } from 'vitest';
-import { converter, differenceCiede2000 } from 'culori';
-import { SRGB8_TO_LINEAR } from '../../../src/lib/analysis/colour';
+import { converter } from 'culori';
+import { hexToLab, linearRgbToOklab, oklabToLab, SRGB8_TO_LINEAR, xyzToLab, XYZ_TO_LINEAR_RGB } from '../../../src/lib/colour';
+import { applyMatrix } from '../../../src/lib/matrix';
 
-const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const toOklab = converter('oklab');
-
-describe('ΔE00 as used by the tests', () => {
-  // Source: Sharma, Wu & Dalal, Color Res. Appl. 30(1):21–30 (2005), Table 1, pairs 1, 7, 10, 17, 25, 34.
-  it.each([
-    [1, [50, 2.6772, -79.7751], [50, 0, -82.7485], 2.0425],
-    [7, [50, 0, 0], [50, -1, 2], 2.3669],
-    [10, [50, 2.49, -0.001], [50, -2.49, 0.001], 7.1792],
-    [17, [50, 2.5, 0], [73, 25, -18], 27.1492],
-    [25, [60.2574, -34.0099, 36.2677], [60.4626, -34.1751, 39.4387], 1.2644],
-    [34, [2.0776, 0.0795, -1.135], [0.9033, -0.0636, -0.5514], 0.9082],
-  ])('pair %i', (_pair, [l1, a1, b1], [l2, a2, b2], expected) => {
-    const difference = ciede2000({ mode: 'lab65', l: l1, a: a1, b: b1 }, { mode: 'lab65', l: l2, a: a2, b: b2 });
-    expect(difference).toBeCloseTo(expected, 4);
-  });
-});
 
 describe('CIELAB (D65)', () => {
   // Source: CIE 15:2004 §8.2.1, L* = 116 f(Y/Yn) − 16, a* = 500[f(X/Xn) − f(Y/Yn)], b* = 200[f(Y/Yn) − f(Z/Zn)],
@@ -58,6 +43,39 @@ describe('CIELAB (D65)', () => {
     expect(lab.a).toBeCloseTo(a, 1);
     expect(lab.b).toBeCloseTo(b, 1);
   });
+
+  // The colour core's own conversions against the same formula: XYZ → CIELAB directly, and the way the
+  // photo analysis goes, linear sRGB → OKLab → CIELAB.
+  it.each([
+    [0.3, 0.2, 0.25],
+    [0.05, 0.06, 0.09],
+    [0.7, 0.8, 0.6],
+  ])('xyzToLab and oklabToLab, XYZ %f %f %f', (x, y, z) => {
+    const expected = cieLab(x, y, z);
+    const linear = applyMatrix(XYZ_TO_LINEAR_RGB, [x, y, z]);
+    for (const lab of [xyzToLab({ x, y, z }), oklabToLab(linearRgbToOklab(...linear))]) {
+      expect(lab.l).toBeCloseTo(expected.l, 1);
+      expect(lab.a).toBeCloseTo(expected.a, 1);
+      expect(lab.b).toBeCloseTo(expected.b, 1);
+    }
+  });
+
+  // The same tabulated primaries (from memory, as above) through the colour core's hex reading: with or
+  // without '#', in short form, in capitals, with spaces around.
+  it.each([
+    ['f00', 53.24, 80.09, 67.2],
+    ['#00FF00', 87.73, -86.18, 83.18],
+    [' #0000ff ', 32.3, 79.19, -107.86],
+  ])('hexToLab %j', (hex, l, a, b) => {
+    const lab = hexToLab(hex)!;
+    expect(lab.l).toBeCloseTo(l, 1);
+    expect(lab.a).toBeCloseTo(a, 1);
+    expect(lab.b).toBeCloseTo(b, 1);
+  });
+
+  it.each(['#12345', '#ff000080', '#f008', 'red', ''])('hexToLab refuses %j', (text) => {
+    expect(hexToLab(text)).toBeUndefined();
+  });
 });
 
 describe('OKLab', () => {
@@ -70,6 +88,17 @@ describe('OKLab', () => {
     [[0, 0, 1], [0.153, -1.415, -0.449]],
   ])('XYZ %j', ([x, y, z], [l, a, b]) => {
     const oklab = toOklab({ mode: 'xyz65', x, y, z });
+    expect(Math.abs(oklab.l - l)).toBeLessThan(0.002);
+    expect(Math.abs(oklab.a - a)).toBeLessThan(0.002);
+    expect(Math.abs(oklab.b - b)).toBeLessThan(0.002);
+  });
+
+  // Source: the same table (from memory); the colour core's per-pixel path, from linear sRGB.
+  it.each([
+    [[0.95, 1, 1.089], [1, 0, 0]],
+    [[0, 0, 1], [0.153, -1.415, -0.449]],
+  ])('linearRgbToOklab of XYZ %j', (xyz, [l, a, b]) => {
+    const oklab = linearRgbToOklab(...applyMatrix(XYZ_TO_LINEAR_RGB, xyz));
     expect(Math.abs(oklab.l - l)).toBeLessThan(0.002);
     expect(Math.abs(oklab.a - a)).toBeLessThan(0.002);
     expect(Math.abs(oklab.b - b)).toBeLessThan(0.002);
