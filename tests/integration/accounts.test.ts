@@ -3,7 +3,7 @@ import { createHash } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import { encode } from '@auth/core/jwt';
 import { api, baseUrl, newJar, type Jar } from '../support/app';
-import { demo, demoPassword, postSignIn, signedIn, csrfToken } from '../support/auth';
+import { confirmedAccount, csrfToken, demo, demoPassword, newAddress, postSignIn, sessionCookie, signedIn } from '../support/auth';
 import { countMail, linkIn, waitForMail } from '../support/mail';
 import { testDatabase } from '../support/database';
 import { keysUnder, putTestObject } from '../support/storage';
@@ -12,21 +12,7 @@ import { accountTokens, alloys, couponLayers, coupons, photos, users, verificati
 const { db, pool } = testDatabase();
 afterAll(() => pool.end());
 
-const unique = () => `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 7)}`;
-const newAddress = () => `smith-${unique()}@oxbloom.test`;
-const sessionCookie = (jar: Jar) => [...jar.cookies.keys()].find((name) => name.endsWith('authjs.session-token'));
 const errorCode = (response: Response) => new URL(response.headers.get('location') ?? '/', baseUrl).searchParams.get('code');
-
-/** Signs up and follows the confirmation link: a fresh confirmed account, signed in. */
-async function confirmedAccount(password = 'a long test password') {
-  const email = newAddress();
-  expect((await api('/api/account/sign-up', { json: { name: 'Test Smith', email, password } })).status).toBe(202);
-  const link = linkIn(await waitForMail(email, 'Confirm your e-mail'), `${baseUrl}/confirm-email`);
-  const jar = newJar();
-  expect((await api(new URL(link).pathname + new URL(link).search, { jar })).status).toBe(200);
-  const me = (await (await api('/api/account', { jar })).json()) as { id: string };
-  return { email, password, jar, id: me.id };
-}
 
 describe('demo accounts', () => {
   it.each(Object.entries(demo))('%s signs in with the demo password and has its role', async (role, email) => {

@@ -48,3 +48,35 @@ export function linkIn(mail: ParsedMail, prefix: string): string {
   if (!match) throw new Error(`No link starting ${prefix} in “${mail.subject}”`);
   return match[0].replace(/&amp;/g, '&');
 }
+
+export interface CapturedMail {
+  file: string;
+  /** Recipients exactly as the message names them (not lower-cased). */
+  to: string[];
+  subject: string;
+  mail: ParsedMail;
+}
+
+/** Every captured message with a recipient whose address contains `fragment`, oldest first. */
+export async function mailMentioning(fragment: string): Promise<CapturedMail[]> {
+  let files: string[] = [];
+  try {
+    files = readdirSync(mailDir()).filter((name) => name.endsWith('.eml')).sort();
+  } catch {
+    return [];
+  }
+  const found: CapturedMail[] = [];
+  for (const file of files) {
+    const mail = await simpleParser(readFileSync(path.join(mailDir(), file)));
+    const to = [mail.to].flat().flatMap((address) => address?.value ?? []).map((value) => value.address ?? '');
+    if (to.some((address) => address.includes(fragment))) found.push({ file, to, subject: mail.subject ?? '', mail });
+  }
+  return found;
+}
+
+/** Every link in a message's text and HTML that starts with `prefix`. */
+export function linksIn(mail: ParsedMail, prefix: string): string[] {
+  const text = `${mail.text ?? ''} ${typeof mail.html === 'string' ? mail.html : ''}`;
+  const escaped = prefix.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  return [...new Set([...text.matchAll(new RegExp(`${escaped}[^\\s"<>]*`, 'g'))].map((match) => match[0].replace(/&amp;/g, '&')))];
+}
