@@ -56,6 +56,7 @@ export const invitations = mysqlTable(
     classId: int('class_id')
       .notNull()
       .references(() => classes.id, { onDelete: 'cascade' }),
+    /** Normalised, exact collation, like users.email (see users.ts). */
     email: varchar('email', { length: 255 }).notNull(),
     tokenHash: char('token_hash', { length: 64 }).notNull(),
     invitedBy: varchar('invited_by', { length: 255 })

@@ -14,12 +14,20 @@ import { timestamps } from './columns';
 export const roles = ['member', 'instructor', 'admin'] as const;
 export type Role = (typeof roles)[number];
 
+/**
+ * E-mail columns hold the normalised address (src/lib/email-address.ts) under the collation
+ * utf8mb4_nopad_bin, so the database compares addresses byte for byte: no case or accent folding,
+ * no ignored trailing spaces. Drizzle's MySQL columns can't declare a collation, so the migration
+ * that sets it (0002_account-identity-and-sessions.sql) was written by hand; keep it when a
+ * column here changes.
+ */
 /** People with an account. Column keys follow what the Auth.js Drizzle adapter expects. */
 export const users = mysqlTable('users', {
   id: varchar('id', { length: 255 })
     .primaryKey()
     .$defaultFn(() => crypto.randomUUID()),
   name: varchar('name', { length: 255 }),
+  /** Normalised, exact collation (see above); unique. */
   email: varchar('email', { length: 255 }).notNull().unique(),
   emailVerified: timestamp('email_verified', { mode: 'date', fsp: 3 }),
   image: varchar('image', { length: 255 }),
@@ -49,16 +57,26 @@ export const accounts = mysqlTable(
   (table) => [primaryKey({ columns: [table.provider, table.providerAccountId] })],
 );
 
-/** Auth.js: database sessions (the app uses JWT sessions; the adapter still wants the table). */
-export const sessions = mysqlTable('sessions', {
-  sessionToken: varchar('session_token', { length: 255 }).primaryKey(),
-  userId: varchar('user_id', { length: 255 })
-    .notNull()
-    .references(() => users.id, { onDelete: 'cascade' }),
-  expires: timestamp('expires', { mode: 'date' }).notNull(),
-});
+/**
+ * Live sign-ins. Every session cookie (a JWT) carries the id of its row here, and a session is
+ * good only while its row is: signing out deletes the row, signing out everywhere or changing the
+ * password deletes all of a person's rows. Checking one is a primary-key read. (The table is the
+ * one Auth.js's adapter keeps for database sessions; with JWT sessions Auth.js never writes it.)
+ */
+export const sessions = mysqlTable(
+  'sessions',
+  {
+    sessionToken: varchar('session_token', { length: 255 }).primaryKey(),
+    userId: varchar('user_id', { length: 255 })
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expires: timestamp('expires', { mode: 'date' }).notNull(),
+    createdAt: timestamps.createdAt,
+  },
+  (table) => [index('sessions_user_idx').on(table.userId)],
+);
 
-/** Auth.js: one-time sign-in links sent by e-mail. */
+/** Auth.js: one-time sign-in links sent by e-mail. The identifier is an e-mail column (exact collation). */
 export const verificationTokens = mysqlTable(
   'verification_tokens',
   {
