@@ -6,7 +6,7 @@ import { DrizzleAdapter } from '@auth/drizzle-adapter';
 import { accounts, sessions, users, verificationTokens } from '../db/schema';
 import { db } from './lib/server/db';
 import { config } from './lib/server/config';
-import { emailSchema } from './lib/account';
+import { normaliseEmail } from './lib/account';
 import { findUserByEmail, findUserById, passwordHashOf } from './lib/server/users';
 import { decoyHash, verifyPassword } from './lib/server/passwords';
 import { sendNoAccountMail, sendSignInLinkMail } from './lib/server/account-mail';
@@ -16,11 +16,26 @@ class EmailNotConfirmed extends CredentialsSignin {
   code = 'unconfirmed';
 }
 
+/**
+ * An address the app refuses, typed into the sign-in-link form. Auth.js sends a sign-in error
+ * (this kind) back to the sign-in page with its code, where the page says what to fix.
+ */
+class AddressRefused extends CredentialsSignin {
+  code = 'address';
+}
+
+/** Auth.js's normalizeIdentifier: the app's own rule, and a refusal (not a guess) for anything else. */
+function normaliseIdentifier(identifier: string): string {
+  const email = normaliseEmail(identifier);
+  if (!email) throw new AddressRefused();
+  return email;
+}
+
 /** Password sign-in: one answer for an unknown address and a wrong password. */
 async function authorize(credentials: Partial<Record<string, unknown>>) {
-  const email = emailSchema.safeParse(credentials.email);
+  const email = normaliseEmail(credentials.email);
   const password = typeof credentials.password === 'string' ? credentials.password : '';
-  const user = email.success ? await findUserByEmail(email.data) : undefined;
+  const user = email ? await findUserByEmail(email) : undefined;
   const hash = user ? await passwordHashOf(user.id) : await decoyHash();
   const matches = (await verifyPassword(hash, password)) && Boolean(user);
   if (!user || !matches) return null;
@@ -45,16 +60,26 @@ export default defineConfig({
       server: { host: config().SMTP_HOST, port: config().SMTP_PORT, secure: false },
       from: config().MAIL_FROM,
       maxAge: 15 * 60,
-      // Unknown addresses get a "no account here" note instead of a link, so a sign-in link can
-      // never create an account and the page shown is the same either way.
+      normalizeIdentifier: normaliseIdentifier,
+      // The link goes only to an account's address exactly as stored (the identifier is already
+      // normalised, and the lookup is exact). Unknown addresses get a "no account here" note
+      // instead, so a sign-in link can never create an account and the page shown is the same
+      // either way.
       async sendVerificationRequest({ identifier, url }) {
         const user = await findUserByEmail(identifier);
-        if (user) await sendSignInLinkMail(identifier, url);
+        if (user && user.email === identifier) await sendSignInLinkMail(user.email, url);
         else await sendNoAccountMail(identifier, new URL('/sign-up', url).toString());
       },
     }),
   ],
   callbacks: {
+    // A followed sign-in link signs in only the existing account whose stored address is exactly
+    // the link's; nothing else (and never a new account).
+    async signIn({ user, account, email }) {
+      if (account?.provider !== 'nodemailer' || email?.verificationRequest) return true;
+      const existing = user.id ? await findUserById(user.id) : undefined;
+      return Boolean(existing && existing.email === user.email);
+    },
     // The role is read from the database on every session read, so a role change or a deleted
     // account takes effect at once; anything that changes data checks the database again anyway.
     async jwt({ token, user }) {

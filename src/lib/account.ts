@@ -1,16 +1,14 @@
 import { z } from 'zod';
 import { plainText } from './text';
+import { emailSchema } from './email-address';
 
 /** Account rules shared by forms, islands and routes. */
 export const PASSWORD_MIN_LENGTH = 10;
 export const PASSWORD_MAX_LENGTH = 200;
 export const DELETE_CONFIRMATION = 'delete my account';
 
-export const emailSchema = z
-  .string({ error: 'Enter your e-mail address.' })
-  .trim()
-  .toLowerCase()
-  .pipe(z.email({ error: 'Enter a valid e-mail address.' }).max(255, { error: 'That e-mail address is too long.' }));
+// E-mail addresses: one normalising rule for every route (see email-address.ts).
+export { emailSchema, normaliseEmail } from './email-address';
 
 export const passwordSchema = z
   .string({ error: 'Enter a password.' })

@@ -25,7 +25,7 @@ export async function signUp(input: SignUpInput, address: string): Promise<Limit
   if (stop) return stop;
   const existing = await findUserByEmail(input.email);
   if (existing) {
-    await sendAlreadyRegisteredMail(input.email, link('/sign-in'), link('/forgot-password'));
+    await sendAlreadyRegisteredMail(existing.email, link('/sign-in'), link('/forgot-password'));
     return { status: 'sent' };
   }
   let id: string;
@@ -55,7 +55,7 @@ export async function requestPasswordReset(email: string, address: string): Prom
   const stop = limited(await hitAll([[limits.resetPerAddress, address], [limits.resetPerEmail, email]]));
   if (stop) return stop;
   const user = await findUserByEmail(email);
-  if (user) await sendResetMail(email, link('/reset-password', await issueToken(user.id, 'reset-password')));
+  if (user) await sendResetMail(user.email, link('/reset-password', await issueToken(user.id, 'reset-password')));
   else await sendNoAccountMail(email, link('/sign-up'));
   return { status: 'sent' };
 }

@@ -1,6 +1,6 @@
 import { asc, eq, sql } from 'drizzle-orm';
 import { users } from '../../../db/schema';
-import type { RoleName } from '../account';
+import { normaliseEmail, type RoleName } from '../account';
 import { db } from './db';
 
 export interface UserRecord {
@@ -26,8 +26,11 @@ export async function findUserById(id: string): Promise<UserRecord | undefined> 
   return user;
 }
 
+/** The account whose stored address is exactly this one once normalised; none for an address the app refuses. */
 export async function findUserByEmail(email: string): Promise<UserRecord | undefined> {
-  const [user] = await db().select(publicColumns).from(users).where(eq(users.email, email.toLowerCase()));
+  const normalised = normaliseEmail(email);
+  if (!normalised) return undefined;
+  const [user] = await db().select(publicColumns).from(users).where(eq(users.email, normalised));
   return user;
 }
 
@@ -38,8 +41,10 @@ export async function passwordHashOf(id: string): Promise<string | null> {
 }
 
 export async function createUser(input: { name: string; email: string; passwordHash: string }): Promise<string> {
+  const email = normaliseEmail(input.email);
+  if (!email) throw new Error('createUser: the address was not validated.');
   const id = crypto.randomUUID();
-  await db().insert(users).values({ id, name: input.name, email: input.email.toLowerCase(), passwordHash: input.passwordHash });
+  await db().insert(users).values({ id, name: input.name, email, passwordHash: input.passwordHash });
   return id;
 }
 
