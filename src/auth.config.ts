@@ -10,7 +10,7 @@ import { normaliseEmail } from './lib/account';
 import { findUserByEmail, findUserById, passwordHashOf } from './lib/server/users';
 import { decoyHash, verifyPassword } from './lib/server/passwords';
 import { sendNoAccountMail, sendSignInLinkMail } from './lib/server/account-mail';
-import { SESSION_MAX_AGE_SECONDS } from './lib/server/session';
+import { closeSession, findLiveSession, openSession, SESSION_MAX_AGE_SECONDS } from './lib/server/session';
 
 class EmailNotConfirmed extends CredentialsSignin {
   code = 'unconfirmed';
@@ -80,18 +80,31 @@ export default defineConfig({
       const existing = user.id ? await findUserById(user.id) : undefined;
       return Boolean(existing && existing.email === user.email);
     },
-    // The role is read from the database on every session read, so a role change or a deleted
-    // account takes effect at once; anything that changes data checks the database again anyway.
+    // A sign-in opens a live session and the cookie carries its id; every later read checks that
+    // session (one primary-key read, joined to the user row) and takes the name and role from the
+    // database, so sign-out, a password change, a deleted account or a role change act at once.
     async jwt({ token, user }) {
-      const id = user?.id ?? token.sub;
-      const current = id ? await findUserById(id) : undefined;
-      if (!current) return null;
-      return { ...token, sub: current.id, name: current.name, email: current.email, role: current.role };
+      if (user?.id) {
+        const current = await findUserById(user.id);
+        if (!current) return null;
+        const sid = await openSession(current.id);
+        return { ...token, sub: current.id, name: current.name, email: current.email, role: current.role, sid };
+      }
+      const live = token.sid ? await findLiveSession(token.sid) : undefined;
+      if (!live || live.userId !== token.sub) return null;
+      return { ...token, name: live.name, email: live.email, role: live.role };
     },
     session({ session, token }) {
       session.user.id = token.sub!;
       session.user.role = token.role;
       return session;
+    },
+  },
+  events: {
+    // Auth.js's own sign-out route ends the live session as ours does.
+    async signOut(message) {
+      const sid = 'token' in message ? message.token?.sid : undefined;
+      if (sid) await closeSession(sid);
     },
   },
 });

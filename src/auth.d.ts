@@ -15,5 +15,7 @@ declare module '@auth/core/types' {
 declare module '@auth/core/jwt' {
   interface JWT {
     role: RoleName;
+    /** The live session this cookie belongs to (src/lib/server/session.ts). */
+    sid?: string;
   }
 }

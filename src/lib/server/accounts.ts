@@ -3,7 +3,8 @@ import { sendAlreadyRegisteredMail, sendNoAccountMail, sendResetMail, sendVerifi
 import { config } from './config';
 import { limits } from './limits';
 import { hashPassword, verifyPassword } from './passwords';
-import { hitAll, type LimitResult } from './rate-limit';
+import { hit, hitAll, refund, type LimitResult } from './rate-limit';
+import { closeAllSessions } from './session';
 import { consumeToken, issueToken, voidTokens, type TokenCheck } from './tokens';
 import { createUser, findUserByEmail, findUserById, markEmailVerified, passwordHashOf, updatePasswordHash, type UserRecord } from './users';
 
@@ -62,19 +63,35 @@ export async function requestPasswordReset(email: string, address: string): Prom
 
 export type PasswordReset = { status: 'reset'; user: UserRecord } | { status: Exclude<TokenCheck['status'], 'valid'> };
 
-/** Sets a new password from a reset link; following the link also proves the address. */
+/**
+ * Sets a new password from a reset link; following the link also proves the address. Every
+ * session of the account ends (whoever took it over is out); the route signs in the browser that
+ * reset it with a new session.
+ */
 export async function resetPassword(token: string, password: string): Promise<PasswordReset> {
   const check = await consumeToken(token, 'reset-password');
   if (check.status !== 'valid') return { status: check.status };
   await updatePasswordHash(check.userId, await hashPassword(password));
+  await closeAllSessions(check.userId);
   await markEmailVerified(check.userId);
   await voidTokens(check.userId, 'reset-password');
   const user = await findUserById(check.userId);
   return user ? { status: 'reset', user } : { status: 'unknown' };
 }
 
-export async function changePassword(userId: string, currentPassword: string, newPassword: string): Promise<'changed' | 'wrong-password'> {
-  if (!(await verifyPassword(await passwordHashOf(userId), currentPassword))) return 'wrong-password';
+export type PasswordChange = Limited<{ status: 'changed' | 'wrong-password' }>;
+
+/**
+ * Changes the password given the current one. Wrong current passwords are counted per account
+ * (a right one takes its try back), so a stolen session can't guess its way to the password.
+ * Every session of the account ends; the caller signs the changing browser in again.
+ */
+export async function changePassword(userId: string, currentPassword: string, newPassword: string): Promise<PasswordChange> {
+  const stop = limited(await hit(limits.passwordChangePerAccount, userId));
+  if (stop) return stop;
+  if (!(await verifyPassword(await passwordHashOf(userId), currentPassword))) return { status: 'wrong-password' };
+  await refund(limits.passwordChangePerAccount, userId);
   await updatePasswordHash(userId, await hashPassword(newPassword));
-  return 'changed';
+  await closeAllSessions(userId);
+  return { status: 'changed' };
 }

@@ -11,4 +11,6 @@ export const limits = {
   signUpPerAddress: { name: 'sign-up:address', max: perAddress(10), windowSeconds: minutes(60) },
   resetPerEmail: { name: 'reset:email', max: 3, windowSeconds: minutes(60) },
   resetPerAddress: { name: 'reset:address', max: perAddress(10), windowSeconds: minutes(60) },
+  /** Wrong current passwords on the password-change form, per account. */
+  passwordChangePerAccount: { name: 'password-change:account', max: 5, windowSeconds: minutes(15) },
 } satisfies Record<string, Limit>;

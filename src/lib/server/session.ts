@@ -1,5 +1,10 @@
-import { encode } from '@auth/core/jwt';
+import { randomBytes } from 'node:crypto';
+import { decode, encode } from '@auth/core/jwt';
 import type { AstroCookies } from 'astro';
+import { and, count, eq, gt, lt, sql } from 'drizzle-orm';
+import { sessions, users } from '../../../db/schema';
+import type { RoleName } from '../account';
+import { db } from './db';
 
 /** How long a sign-in lasts (Auth.js session.maxAge uses the same). */
 export const SESSION_MAX_AGE_SECONDS = 7 * 24 * 3600;
@@ -14,13 +19,64 @@ function secret(): string {
 }
 
 /**
- * Signs someone in from our own flows (e-mail confirmation, password reset) with the same
- * encrypted JWT cookie Auth.js makes, so Auth.js reads it like any other session.
+ * Live sessions. A session cookie is an encrypted JWT that names a row of `sessions` (its `sid`);
+ * it is good only while that row exists and has not expired. Every request checks it with one
+ * primary-key read (joined to the user's row, which the session needs anyway), so signing out,
+ * signing out everywhere, a password change or reset, and a role change take effect at once.
+ */
+export interface LiveSession {
+  userId: string;
+  name: string | null;
+  email: string;
+  role: RoleName;
+}
+
+/** Records a new sign-in for `userId` and returns its id (for the cookie's `sid`). */
+export async function openSession(userId: string): Promise<string> {
+  const id = randomBytes(32).toString('hex');
+  await db().insert(sessions).values({ sessionToken: id, userId, expires: new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000) });
+  // Housekeeping on the same index: this person's sessions that ran out.
+  await db().delete(sessions).where(and(eq(sessions.userId, userId), lt(sessions.expires, sql`UTC_TIMESTAMP()`)));
+  return id;
+}
+
+/** The session's person as the database has them now, or undefined when the session is over. */
+export async function findLiveSession(id: string): Promise<LiveSession | undefined> {
+  const [row] = await db()
+    .select({ userId: users.id, name: users.name, email: users.email, role: users.role })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(and(eq(sessions.sessionToken, id), gt(sessions.expires, sql`UTC_TIMESTAMP()`)));
+  return row;
+}
+
+export async function closeSession(id: string): Promise<void> {
+  await db().delete(sessions).where(eq(sessions.sessionToken, id));
+}
+
+/** Ends every session of a person (sign out everywhere, a password change or reset). */
+export async function closeAllSessions(userId: string): Promise<void> {
+  await db().delete(sessions).where(eq(sessions.userId, userId));
+}
+
+export async function countLiveSessions(userId: string): Promise<number> {
+  const [row] = await db()
+    .select({ live: count() })
+    .from(sessions)
+    .where(and(eq(sessions.userId, userId), gt(sessions.expires, sql`UTC_TIMESTAMP()`)));
+  return Number(row?.live ?? 0);
+}
+
+/**
+ * Signs someone in from our own flows (e-mail confirmation, password reset, a password change)
+ * with a new live session and the same encrypted JWT cookie Auth.js makes, so Auth.js reads it
+ * like any other session.
  */
 export async function startSession(cookies: AstroCookies, url: URL, user: { id: string; name: string | null; email: string }) {
   const name = sessionCookieName(url);
+  const sid = await openSession(user.id);
   const token = await encode({
-    token: { sub: user.id, name: user.name, email: user.email },
+    token: { sub: user.id, name: user.name, email: user.email, sid },
     secret: secret(),
     salt: name,
     maxAge: SESSION_MAX_AGE_SECONDS,
@@ -34,6 +90,18 @@ export async function startSession(cookies: AstroCookies, url: URL, user: { id: 
   });
 }
 
-export function endSession(cookies: AstroCookies, url: URL) {
+/** The live-session id the request's cookie names, if the cookie is ours and readable. */
+async function sessionIdOf(cookies: AstroCookies, url: URL): Promise<string | undefined> {
+  const name = sessionCookieName(url);
+  const value = cookies.get(name)?.value;
+  if (!value) return undefined;
+  const token = await decode({ token: value, secret: secret(), salt: name }).catch(() => null);
+  return typeof token?.sid === 'string' ? token.sid : undefined;
+}
+
+/** Signs out: ends this session for good (a kept copy of its cookie stops working) and clears the cookie. */
+export async function endSession(cookies: AstroCookies, url: URL) {
+  const sid = await sessionIdOf(cookies, url);
+  if (sid) await closeSession(sid);
   cookies.delete(sessionCookieName(url), { path: '/' });
 }

@@ -27,6 +27,6 @@ export const DELETE: APIRoute = async (context) => {
   const input = await parseBody(context.request, deleteAccountSchema);
   if (!input.ok) return input.response;
   await deleteAccount(user.id);
-  endSession(context.cookies, context.url);
+  await endSession(context.cookies, context.url);
   return new Response(null, { status: 204 });
 };
