@@ -11,6 +11,7 @@ import { findUserByEmail, findUserById, passwordHashOf } from './lib/server/user
 import { decoyHash, verifyPassword } from './lib/server/passwords';
 import { sendNoAccountMail, sendSignInLinkMail } from './lib/server/account-mail';
 import { closeSession, findLiveSession, openSession, SESSION_MAX_AGE_SECONDS } from './lib/server/session';
+import { consumeSignInLink } from './lib/server/sign-in-links';
 
 class EmailNotConfirmed extends CredentialsSignin {
   code = 'unconfirmed';
@@ -46,12 +47,15 @@ async function authorize(credentials: Partial<Record<string, unknown>>) {
 export default defineConfig({
   secret: process.env.AUTH_SECRET,
   trustHost: true,
-  adapter: DrizzleAdapter(db(), {
-    usersTable: users,
-    accountsTable: accounts,
-    sessionsTable: sessions,
-    verificationTokensTable: verificationTokens,
-  }),
+  adapter: {
+    ...DrizzleAdapter(db(), {
+      usersTable: users,
+      accountsTable: accounts,
+      sessionsTable: sessions,
+      verificationTokensTable: verificationTokens,
+    }),
+    useVerificationToken: consumeSignInLink,
+  },
   session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_SECONDS },
   pages: { signIn: '/sign-in', verifyRequest: '/sign-in/check-email', error: '/sign-in/problem' },
   providers: [

@@ -148,6 +148,13 @@ describe('sign-in by e-mailed link', () => {
     expect(new URL(again.headers.get('location')!, baseUrl).search).toContain('error=Verification');
   });
 
+  it('signs in once when the same link is followed twice at the same moment', async () => {
+    const link = await requestLink(demo.member2, newJar());
+    const jars = [newJar(), newJar(), newJar()];
+    await Promise.all(jars.map((jar) => api(link.pathname + link.search, { jar })));
+    expect(jars.filter((jar) => sessionCookie(jar) !== undefined)).toHaveLength(1);
+  });
+
   it('refuses an expired link', async () => {
     const jar = newJar();
     const link = await requestLink(demo.instructor, jar);
