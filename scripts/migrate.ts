@@ -1,11 +1,15 @@
-// Applies the committed Drizzle migrations in db/migrations to DATABASE_URL. On failure it prints
-// one line naming the database's own complaint and exits 1.
+// Checks the app's settings, then applies the committed Drizzle migrations in db/migrations to
+// DATABASE_URL. On failure it prints one line naming the fault and exits 1.
 import { migrate } from 'drizzle-orm/mysql2/migrator';
 import { createDatabase } from '../db/client';
+import { readConfig } from '../src/lib/server/config';
 
-const url = process.env.DATABASE_URL;
-if (!url) {
-  console.error('DATABASE_URL is not set.');
+// Every app setting is checked here, before anything starts, so a bad one stops start-up with one line.
+let url: string;
+try {
+  url = readConfig(process.env).DATABASE_URL;
+} catch (error) {
+  console.error((error as Error).message);
   process.exit(1);
 }
 

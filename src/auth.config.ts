@@ -45,7 +45,7 @@ async function authorize(credentials: Partial<Record<string, unknown>>) {
 }
 
 export default defineConfig({
-  secret: process.env.AUTH_SECRET,
+  secret: config().AUTH_SECRET,
   trustHost: true,
   adapter: {
     ...DrizzleAdapter(db(), {

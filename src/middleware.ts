@@ -12,6 +12,9 @@ import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { securityHeaders } from './lib/server/security-headers';
 import { startUploadSweeper } from './lib/server/uploads';
 
+// A missing or malformed setting stops the server before it answers anyone, naming the setting.
+config();
+
 /**
  * Sign-in attempts through Auth.js are limited per client address (all attempts) and per e-mail
  * address (failed password attempts, and every request for a sign-in link). Only Auth.js paths

@@ -1,7 +1,8 @@
+import { config } from './config';
 import type { Limit } from './rate-limit';
 
 const minutes = (count: number) => count * 60;
-const perAddress = (fallback: number) => Number(process.env.OXBLOOM_LIMIT_PER_ADDRESS ?? fallback);
+const perAddress = (fallback: number) => config().OXBLOOM_LIMIT_PER_ADDRESS ?? fallback;
 
 /** How often each account action may be tried, per e-mail address and per client address. */
 export const limits = {

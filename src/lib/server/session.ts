@@ -4,6 +4,7 @@ import type { AstroCookies } from 'astro';
 import { and, count, eq, gt, lt, sql } from 'drizzle-orm';
 import { sessions, users } from '../../../db/schema';
 import type { RoleName } from '../account';
+import { config } from './config';
 import { db } from './db';
 
 /** How long a sign-in lasts (Auth.js session.maxAge uses the same). */
@@ -12,11 +13,7 @@ export const SESSION_MAX_AGE_SECONDS = 7 * 24 * 3600;
 /** Auth.js's own cookie name for JWT sessions; secure cookies get the __Secure- prefix. */
 export const sessionCookieName = (url: URL) => (url.protocol === 'https:' ? '__Secure-authjs.session-token' : 'authjs.session-token');
 
-function secret(): string {
-  const value = process.env.AUTH_SECRET;
-  if (!value) throw new Error('AUTH_SECRET is not set.');
-  return value;
-}
+const secret = () => config().AUTH_SECRET;
 
 /**
  * Live sessions. A session cookie is an encrypted JWT that names a row of `sessions` (its `sid`);
