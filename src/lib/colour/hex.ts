@@ -3,11 +3,9 @@ import { formatHex, parseHex } from 'culori/fn';
 import { rgbToLab, type Rgb } from './convert';
 import type { Lab } from './types';
 
-const HEX = /^#?([0-9a-f]{3}|[0-9a-f]{6})$/i;
+import { isHexColour } from './hex-pattern';
 
-export function isHexColour(value: string): boolean {
-  return HEX.test(value);
-}
+export { isHexColour };
 
 /** CIELAB (D65) of an sRGB hex colour (#rgb or #rrggbb, the # optional); undefined when malformed. */
 export function hexToLab(hex: string): Lab | undefined {

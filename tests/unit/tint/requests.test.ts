@@ -6,16 +6,16 @@ import {
   planPairRequestSchema,
   predictRequestSchema,
 } from '../../../src/lib/tint/requests';
-import type { z } from 'zod';
+import { z } from 'zod';
 
 // Route-level validation: the limits come from the issue's API section (temperature 0–1600 °C,
 // no negative time, well-formed colours, known alloys); no published source needed.
-const firstField = (schema: z.ZodType, body: unknown) => {
-  const result = schema.safeParse(body);
+const firstField = (schema: z.core.$ZodType, body: unknown) => {
+  const result = z.safeParse(schema, body);
   return result.success ? null : result.error.issues[0].path.join('.');
 };
 
-const routes: { route: string; schema: z.ZodType; bad: [unknown, string][] }[] = [
+const routes: { route: string; schema: z.core.$ZodType; bad: [unknown, string][] }[] = [
   {
     route: 'ladder',
     schema: ladderRequestSchema,
