@@ -1,29 +1,15 @@
 import { declaredContentType, type PhotoView, type RegionInput, type UploadTicket } from '../../lib/photos';
+import { callApi } from '../api-client';
 
 /** The browser's side of the photo routes: JSON calls, and the PUT straight to storage with progress. */
 
 /** A failed step, with the message to show beside the file. */
 export class StepFailed extends Error {}
 
-async function messageOf(response: Response): Promise<string> {
-  const body = (await response.json().catch(() => null)) as { error?: string } | null;
-  if (body?.error) return body.error;
-  return response.status >= 500 ? 'Oxbloom could not finish that just now. Try again in a moment.' : `The request was refused (${response.status}).`;
-}
-
-async function call<T>(url: string, method: string, body?: unknown): Promise<T> {
-  let response: Response;
-  try {
-    response = await fetch(url, {
-      method,
-      headers: body === undefined ? {} : { 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-  } catch {
-    throw new StepFailed('No connection to Oxbloom. Check the network and try again.');
-  }
-  if (!response.ok) throw new StepFailed(await messageOf(response));
-  return (response.status === 204 ? undefined : await response.json()) as T;
+async function call<T>(url: string, method: 'POST' | 'PUT' | 'DELETE', body?: unknown): Promise<T> {
+  const answer = await callApi<T>(url, { method, body });
+  if (!answer.ok) throw new StepFailed(answer.message);
+  return answer.body;
 }
 
 export const askForUpload = (file: File) =>
