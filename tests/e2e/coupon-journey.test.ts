@@ -140,4 +140,24 @@ describe('logging a coupon with photos in Chromium', () => {
     await expect(page.getByText('Browser journey laminate').count()).resolves.toBe(0);
     await page.close();
   });
+
+  it('keeps the draft and says so when the session has ended before saving', async () => {
+    const page = await browser().newPage();
+    page.setDefaultTimeout(15_000);
+    await signIn(page, demo.member);
+    await page.goto(`${baseUrl}/coupons/new`);
+    await hydrated(page);
+    await page.getByLabel('Title').fill('Coupon typed while signed out');
+    await page.getByLabel('Layer 1 alloy').selectOption('steel-1084');
+    await page.getByLabel('Temperature (°C)').fill('230');
+    await page.getByLabel('Hold time (minutes)').fill('60');
+    // The session ends (signed out in another tab, or expired) while the form is open.
+    await browser().clearCookies();
+    await page.getByRole('button', { name: 'Save coupon and add photos' }).click();
+    await expect(page.getByRole('alert').textContent()).resolves.toBe('Your session has ended: sign in again in another tab, then save — your draft is kept.');
+    const draft = await page.evaluate(() => localStorage.getItem('oxbloom:coupon-draft:new'));
+    expect(JSON.parse(draft!)).toMatchObject({ title: 'Coupon typed while signed out', layers: ['steel-1084'], temperature: '230' });
+    await page.evaluate(() => localStorage.removeItem('oxbloom:coupon-draft:new'));
+    await page.close();
+  });
 });

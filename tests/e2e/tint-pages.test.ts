@@ -120,6 +120,22 @@ describe('the heat planner page, as a visitor', () => {
     await page.close();
   });
 
+  it('shows a refusal only the API can give beside the field it names', async () => {
+    const page = await browser().newPage();
+    await openPlanner(page);
+    // A page left open while the catalogue changed: its list offers an alloy the API does not know.
+    const alloy = page.getByLabel('Alloy', { exact: true });
+    await alloy.evaluate((select) => select.append(new Option('Retired alloy', 'retired-alloy')));
+    await alloy.selectOption('retired-alloy');
+    await page.getByRole('button', { name: 'Predict the tint' }).click();
+    const error = page.locator('#planner-alloy-error');
+    await error.waitFor();
+    await expect(error.textContent()).resolves.toBe('alloy: unknown alloy "retired-alloy"');
+    await expect(alloy.getAttribute('aria-invalid')).resolves.toBe('true');
+    await expect(page.getByRole('form', { name: 'Planned heat' }).getByRole('alert').textContent()).resolves.toBe('alloy: unknown alloy "retired-alloy"');
+    await page.close();
+  });
+
   it('suggests heats for a laminate pair', async () => {
     const page = await browser().newPage();
     await openPlanner(page);

@@ -1,5 +1,6 @@
-import type { CouponInput } from '../../lib/coupons';
+import { couponInputSchema, type CouponInput } from '../../lib/coupons';
 import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/units';
+import { requestResolver } from '../request-form';
 
 /** What the coupon form holds while typing: numbers as typed text, the temperature in the chosen unit. */
 export interface FormState {
@@ -110,3 +111,10 @@ export function fieldOf(path: readonly PropertyKey[]): string {
   const name = String(first ?? 'form');
   return ({ temperatureC: 'temperature', holdSeconds: 'holdMinutes' } as Record<string, string>)[name] ?? name;
 }
+
+/** The form checked as the API will check its payload, each message beside the field it is about. */
+export const couponResolver = requestResolver({
+  schema: couponInputSchema,
+  requestOf: payloadOf,
+  errorAt: (path, message) => ({ field: fieldOf(path.split('.')), message }),
+});
