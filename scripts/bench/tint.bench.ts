@@ -1,6 +1,6 @@
 // Tint science figures (BRIEF.md "Figures it must reach" and issue 5): the ladder, a prediction
 // with a cached fit, fitting 10 000 coupons, and one pair-planner search.
-import { fitGrowth, FitCache, type CouponObservation } from '../../src/lib/tint/fit';
+import { fitGrowth, type CouponObservation } from '../../src/lib/tint/fit';
 import { heatThicknessNm } from '../../src/lib/tint/growth';
 import { buildLadder, colourAt } from '../../src/lib/tint/ladder';
 import { findTintModel } from '../../src/lib/tint/models';
@@ -27,11 +27,11 @@ function syntheticCoupons(count: number): CouponObservation[] {
 }
 
 const coupons = syntheticCoupons(10_000);
-const cache = new FitCache();
-const cachedFit = () => cache.get('ti-grade-5', 1, () => fitGrowth(titanium, coupons.slice(0, 200)));
+// Fitted once, as the app's per-process cache (src/lib/server/tint-fit.ts) serves it.
+const cachedFit = fitGrowth(titanium, coupons.slice(0, 200));
 
 const ladder = await time(() => buildLadder('tio2-on-titanium', { fromNm: 0, toNm: 600, stepNm: 1 }), 50, 5);
-const predict = await time(() => predictTint(titanium, { process: 'heat', temperatureC: 560, holdMinutes: 45 }, cachedFit()), 200, 10);
+const predict = await time(() => predictTint(titanium, { process: 'heat', temperatureC: 560, holdMinutes: 45 }, cachedFit), 200, 10);
 const fit = await time(() => fitGrowth(titanium, coupons), 10, 2);
 const plan = await time(() => planPair([titanium, steel], { temperatureC: { min: 200, max: 700 } }), 10, 2);
 

@@ -241,24 +241,3 @@ export function heatPriorPrediction(prior: HeatGrowthPrior, temperatureC: number
   const variance = x.reduce((sum, value, j) => sum + (value * sd[j]) ** 2, 0);
   return { lnMean, lnSd: Math.sqrt(variance) };
 }
-
-/**
- * A memo of fits keyed by alloy and a version number (e.g. a count or timestamp of the alloy's
- * coupons): `get` refits only when the version changes.
- */
-export class FitCache {
-  private readonly entries = new Map<string, { version: number | string; fit: GrowthFit }>();
-
-  get(alloy: string, version: number | string, compute: () => GrowthFit): GrowthFit {
-    const entry = this.entries.get(alloy);
-    if (entry && entry.version === version) return entry.fit;
-    const fit = compute();
-    this.entries.set(alloy, { version, fit });
-    return fit;
-  }
-
-  invalidate(alloy?: string): void {
-    if (alloy === undefined) this.entries.clear();
-    else this.entries.delete(alloy);
-  }
-}

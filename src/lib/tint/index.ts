@@ -10,7 +10,7 @@ export { tintNames, type TintName } from './tint-names';
 export { heatThicknessNm, anodizeThicknessNm, type HeatGrowthLaw } from './growth';
 export { fahrenheitToCelsius, celsiusToFahrenheit } from '../units';
 export { thicknessCandidates, type ThicknessCandidate } from './inverse';
-export { fitGrowth, FitCache, type CouponObservation, type GrowthFit } from './fit';
+export { fitGrowth, type CouponObservation, type GrowthFit } from './fit';
 export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';
 export { planPair, type PairSuggestion } from './plan-pair';
 export { heatWarnings, anodizeWarnings, type HeatWarning } from './warnings';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { FitCache, fitGrowth, heatFitPrediction, type CouponObservation } from '../../../src/lib/tint/fit';
+import { fitGrowth, heatFitPrediction, type CouponObservation } from '../../../src/lib/tint/fit';
 import { heatThicknessNm, type HeatGrowthLaw } from '../../../src/lib/tint/growth';
 import { colourAt } from '../../../src/lib/tint/ladder';
 import { findTintModel } from '../../../src/lib/tint/models';
@@ -11,7 +11,6 @@ import { gaussian, seededRandom } from './synthetic';
 // published ones in src/lib/tint/models.ts).
 
 const ti64 = findTintModel('ti-grade-5')!;
-const steel = findTintModel('steel-1084')!;
 
 /** A titanium law away from the prior: 30 % thicker films and Q = 105 kJ/mol instead of ≈ 87. */
 const titaniumTruth: HeatGrowthLaw = {
@@ -123,22 +122,5 @@ describe('fitting the growth per volt', () => {
     const fit = fitGrowth('ti-grade-2', coupons).anodize!;
     expect(fit.nmPerVolt).toBeGreaterThan(2.55);
     expect(fit.nmPerVolt).toBeLessThan(2.65);
-  });
-});
-
-describe('fit cache', () => {
-  it('refits only when the version changes', () => {
-    const cache = new FitCache();
-    let computed = 0;
-    const compute = () => {
-      computed += 1;
-      return fitGrowth('steel-1084', []);
-    };
-    const first = cache.get('steel-1084', 1, compute);
-    expect(cache.get('steel-1084', 1, compute)).toBe(first);
-    expect(computed).toBe(1);
-    cache.get('steel-1084', 2, compute);
-    expect(computed).toBe(2);
-    expect(steel.alloy.slug).toBe('steel-1084');
   });
 });
