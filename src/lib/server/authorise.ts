@@ -19,11 +19,6 @@ export const unauthenticated = () => problem(401, 'Sign in first.');
 export const forbidden = () => problem(403, 'You may not do that.');
 export const notFound = (what = 'That') => problem(404, `${what} was not found.`);
 
-/** The signed-in person from the session, or a 401. Enough for reading. */
-export function requireUser(context: Context): Guarded<SessionUser> {
-  return context.locals.user ?? unauthenticated();
-}
-
 /**
  * The signed-in person as the database has them now, or a 401 (signed out, or the account is
  * gone). Use for anything that changes data.

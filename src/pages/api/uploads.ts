@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { refuseUpload, uploadRequestSchema } from '../../lib/photo-requests';
 import type { PhotoContentType } from '../../lib/photos';
-import { isResponse, requireRole } from '../../lib/server/authorise';
+import { isResponse, requireCurrentUser } from '../../lib/server/authorise';
 import { json, parseJson, problem } from '../../lib/server/http';
 import { createUpload, tooManyOpenUploads } from '../../lib/server/uploads';
 
@@ -10,7 +10,7 @@ import { createUpload, tooManyOpenUploads } from '../../lib/server/uploads';
  * browser uploads straight to storage. A 429 while the caller has too many uploads open.
  */
 export const POST: APIRoute = async (context) => {
-  const user = await requireRole(context, 'member');
+  const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
   const input = await parseJson(context.request, uploadRequestSchema);
   if (!input.ok) return input.response;

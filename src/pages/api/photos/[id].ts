@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { checkAccess, isResponse, requireRole } from '../../../lib/server/authorise';
+import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
 import { json, problem } from '../../../lib/server/http';
 import { deletePhoto, findPhoto, photoView } from '../../../lib/server/photos';
 import { routeId } from '../../../lib/server/route-params';
@@ -21,7 +21,7 @@ export const GET: APIRoute = async (context) => {
 
 /** Deletes the photo, its regions and swatches, and its files in storage (the coupon's owner or an admin). */
 export const DELETE: APIRoute = async (context) => {
-  const user = await requireRole(context, 'member');
+  const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
   const found = await load(context.params);
   if (isResponse(found)) return found;

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { attachRequestSchema } from '../../../../lib/photo-requests';
-import { checkAccess, isResponse, requireRole } from '../../../../lib/server/authorise';
+import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
 import { couponFromRoute } from '../../../../lib/server/coupons';
 import { json, parseJson, problem } from '../../../../lib/server/http';
 import { attachPhoto } from '../../../../lib/server/photo-attach';
@@ -16,7 +16,7 @@ export const GET: APIRoute = async (context) => {
 
 /** Attaches an uploaded photo to the coupon: decoded, measured, stored; answers the photo with its swatches. */
 export const POST: APIRoute = async (context) => {
-  const user = await requireRole(context, 'member');
+  const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
   const coupon = await couponFromRoute(context.params);
   if (isResponse(coupon)) return coupon;

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { checkRegions, regionsRequestSchema } from '../../../../lib/photo-requests';
-import { checkAccess, isResponse, requireRole } from '../../../../lib/server/authorise';
+import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
 import { db } from '../../../../lib/server/db';
 import { json, parseJson, problem } from '../../../../lib/server/http';
 import { layerAlloys } from '../../../../lib/server/photo-records';
@@ -10,7 +10,7 @@ import { routeId } from '../../../../lib/server/route-params';
 
 /** Replaces the photo's regions and measures it again; answers the photo with its new swatches. */
 export const PUT: APIRoute = async (context) => {
-  const user = await requireRole(context, 'member');
+  const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
   const id = routeId(context.params, 'That photo');
   if (isResponse(id)) return id;
