@@ -10,7 +10,7 @@ import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
 import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { securityHeaders } from './lib/server/security-headers';
-import { startUploadSweeper } from './lib/server/uploads';
+import { startUploadSweeper } from './lib/server/photos/uploads-ledger';
 
 // A missing or malformed setting stops the server before it answers anyone, naming the setting.
 config();
@@ -137,7 +137,7 @@ const secureHeaders = defineMiddleware(async (context, next) => {
   return response;
 });
 
-/** Starts this process's timer for the sweep of stale uploads (once; see lib/server/uploads.ts). */
+/** Starts this process's timer for the sweep of stale uploads (once; see lib/server/photos/uploads-ledger.ts). */
 const startTimers = defineMiddleware((_context, next) => {
   startUploadSweeper();
   return next();

@@ -12,7 +12,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import sharp from 'sharp';
 import { converter, differenceCiede2000 } from 'culori';
-import { analysePhoto, ANALYSIS_LONG_SIDE } from '../../src/lib/server/image';
+import { analysePhoto, ANALYSIS_LONG_SIDE } from '../../src/lib/server/photos/decode';
 import type { Region } from '../../src/lib/analysis';
 import { couponScene, encodeJpeg, illuminantACast, illuminantD50Cast, renderScene, TINTS } from '../../tests/fixtures/synthetic-photos';
 import { ms, printTable, time, type Timing } from './report';

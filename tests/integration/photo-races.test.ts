@@ -42,7 +42,7 @@ afterAll(async () => {
 });
 
 /**
- * The racer's objects in storage that nothing accounts for. The ledger's rule (uploads.ts): an
+ * The racer's objects in storage that nothing accounts for. The ledger's rule (photos/uploads-ledger.ts): an
  * object is accounted for when a photo row names it, when a ledger entry names it, or when a
  * ledger entry names another object in its folder and no photo owns that folder (the sweep then
  * clears the whole folder).

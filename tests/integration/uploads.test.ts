@@ -10,7 +10,7 @@ import { TOO_BIG, UNACCEPTED_TYPE } from '../../src/lib/photo-requests';
 import { MAX_UPLOAD_BYTES, type UploadTicket } from '../../src/lib/photos';
 import { db as appDb } from '../../src/lib/server/db';
 import { objectSize, putObject, s3 } from '../../src/lib/server/storage';
-import { STALE_AFTER_MINUTES, sweepIfDue, sweepStaleUploads } from '../../src/lib/server/uploads';
+import { STALE_AFTER_MINUTES, sweepIfDue, sweepStaleUploads } from '../../src/lib/server/photos/uploads-ledger';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';

@@ -1,7 +1,7 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, uploads, users } from '../../../db/schema';
 import { db } from './db';
-import { userPrefix } from './photo-keys';
+import { userPrefix } from './photos/keys';
 import { deleteObjects, listKeys, presignDownload } from './storage';
 import { findUserById } from './users';
 

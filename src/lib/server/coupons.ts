@@ -6,8 +6,8 @@ import type { SessionUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
-import { lockCoupon, photoTransaction } from './photo-records';
-import { forgetCouponPhotos, removePhotoFiles } from './photos';
+import { lockCoupon, photoTransaction } from './photos/records';
+import { forgetCouponPhotos, removePhotoFiles } from './photos/views';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 

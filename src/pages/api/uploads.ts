@@ -3,7 +3,7 @@ import { refuseUpload, uploadRequestSchema } from '../../lib/photo-requests';
 import type { PhotoContentType } from '../../lib/photos';
 import { isResponse, requireCurrentUser } from '../../lib/server/authorise';
 import { json, parseJson, problem } from '../../lib/server/http';
-import { createUpload, tooManyOpenUploads } from '../../lib/server/uploads';
+import { createUpload, tooManyOpenUploads } from '../../lib/server/photos/uploads-ledger';
 
 /**
  * A presigned PUT for one photo, under the caller's own prefix, signed for its type and size; the

@@ -9,8 +9,8 @@ import sharp from 'sharp';
 import exifr from 'exifr';
 import { converter, differenceCiede2000 } from 'culori';
 import type { Swatch } from '../../../src/lib/analysis';
-import { analyseDecoded, analysePhoto, ImageRejected, MAX_INPUT_PIXELS, processPhoto } from '../../../src/lib/server/image';
-import { isHeic } from '../../../src/lib/server/heic';
+import { analyseDecoded, analysePhoto, ImageRejected, MAX_INPUT_PIXELS, processPhoto } from '../../../src/lib/server/photos/decode';
+import { isHeic } from '../../../src/lib/server/photos/heic-worker';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../../fixtures/synthetic-photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/colour/delta-e.test.ts and conversions.test.ts).

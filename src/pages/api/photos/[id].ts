@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
 import { json, problem } from '../../../lib/server/http';
-import { deletePhoto, findPhoto, photoView } from '../../../lib/server/photos';
+import { deletePhoto, findPhoto, photoView } from '../../../lib/server/photos/views';
 import { routeId } from '../../../lib/server/route-params';
 
 async function load(params: Record<string, string | undefined>) {

@@ -3,8 +3,8 @@ import { attachRequestSchema } from '../../../../lib/photo-requests';
 import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
 import { couponFromRoute } from '../../../../lib/server/coupons';
 import { json, parseJson, problem } from '../../../../lib/server/http';
-import { attachPhoto } from '../../../../lib/server/photo-attach';
-import { findPhoto, photoView, photoViews } from '../../../../lib/server/photos';
+import { attachPhoto } from '../../../../lib/server/photos/attach';
+import { findPhoto, photoView, photoViews } from '../../../../lib/server/photos/views';
 import { refusalResponse } from '../../../../lib/server/refusal';
 
 /** The coupon's photos with regions and swatches, for anyone who may see the coupon. */

@@ -3,8 +3,8 @@ import { checkRegions, regionsRequestSchema } from '../../../../lib/photo-reques
 import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
 import { db } from '../../../../lib/server/db';
 import { json, parseJson, problem } from '../../../../lib/server/http';
-import { layerAlloys } from '../../../../lib/server/photo-records';
-import { findPhoto, photoView, reanalysePhoto } from '../../../../lib/server/photos';
+import { layerAlloys } from '../../../../lib/server/photos/records';
+import { findPhoto, photoView, reanalysePhoto } from '../../../../lib/server/photos/views';
 import { refusalResponse } from '../../../../lib/server/refusal';
 import { routeId } from '../../../../lib/server/route-params';
 

@@ -1,9 +1,9 @@
-import type { PhotoContentType } from '../photos';
-import { processPhoto, type ProcessedPhoto } from './image';
-import { encodeAnalysisImage } from './photo-analysis';
-import { derivedKeys } from './photo-files';
-import type { PhotoFiles } from './photo-records';
-import { deleteObjects, putObject } from './storage';
+import type { PhotoContentType } from '../../photos';
+import { processPhoto, type ProcessedPhoto } from './decode';
+import { encodeAnalysisImage } from './measure';
+import { derivedKeys } from './keys';
+import type { PhotoFiles } from './records';
+import { deleteObjects, putObject } from '../storage';
 
 /** At most this many photos are decoded at once per process: a 100 MP photo takes a few hundred MB while it is. */
 const DECODE_SLOTS = 2;

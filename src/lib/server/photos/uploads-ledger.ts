@@ -1,10 +1,10 @@
 import { and, asc, eq, gte, like, lt, sql } from 'drizzle-orm';
-import { appSettings, photos, uploads } from '../../../db/schema';
-import type { Database } from '../../../db/client';
-import { UPLOAD_EXPIRY_SECONDS, type PhotoContentType, type UploadTicket } from '../photos';
-import { db } from './db';
-import { folderOf, newUploadKey } from './photo-files';
-import { deleteObjects, listKeys, presignPut } from './storage';
+import { appSettings, photos, uploads } from '../../../../db/schema';
+import type { Database } from '../../../../db/client';
+import { UPLOAD_EXPIRY_SECONDS, type PhotoContentType, type UploadTicket } from '../../photos';
+import { db } from '../db';
+import { folderOf, newUploadKey } from './keys';
+import { deleteObjects, listKeys, presignPut } from '../storage';
 
 /**
  * The `uploads` table is the ledger of objects in storage that no photo row owns yet (or any

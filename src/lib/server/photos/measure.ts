@@ -1,8 +1,8 @@
 import sharp from 'sharp';
-import type { PixelImage } from '../analysis';
-import type { RegionInput } from '../photos';
-import { analyseDecoded, AnalysisInputError, type AnalysisImage, type PhotoAnalysis } from './image';
-import { Refused } from './refusal';
+import type { PixelImage } from '../../analysis';
+import type { RegionInput } from '../../photos';
+import { analyseDecoded, AnalysisInputError, type AnalysisImage, type PhotoAnalysis } from './decode';
+import { Refused } from '../refusal';
 
 /**
  * From drawn regions to the analysis and back: layer regions are measured each on its own, in

@@ -1,14 +1,14 @@
-import { checkRegions, TOO_BIG } from '../photo-requests';
-import { kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind, type RegionInput } from '../photos';
-import { db } from './db';
-import { ImageRejected } from './image';
-import { analyseRegions } from './photo-analysis';
-import { isUsersKey } from './photo-keys';
-import { insertPhoto, isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions } from './photo-records';
-import { decodedContentType, processPhotoInTurn, writeDerivedFiles } from './photo-store';
-import { Refused } from './refusal';
-import { deleteObjects, getObject, headObject } from './storage';
-import { claimUpload, dropEntry, forgetLater, settleUpload, type Declared } from './uploads';
+import { checkRegions, TOO_BIG } from '../../photo-requests';
+import { kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind, type RegionInput } from '../../photos';
+import { db } from '../db';
+import { ImageRejected } from './decode';
+import { analyseRegions } from './measure';
+import { isUsersKey } from './keys';
+import { insertPhoto, isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions } from './records';
+import { decodedContentType, processPhotoInTurn, writeDerivedFiles } from './store';
+import { Refused } from '../refusal';
+import { deleteObjects, getObject, headObject } from '../storage';
+import { claimUpload, dropEntry, forgetLater, settleUpload, type Declared } from './uploads-ledger';
 
 export interface AttachInput {
   ownerId: string;
@@ -40,7 +40,7 @@ async function retireUpload(ownerId: string, key: string, declared: Declared): P
  * row, its regions and swatches in one transaction that locks the coupon. Refused with a 4xx for
  * every fault of the request or the file; a file that does not match or cannot be used is
  * deleted. Nothing half-done stays: derived files are deleted when the transaction fails, and the
- * upload's ledger entry (see uploads.ts) lets the sweep remove whatever a crash leaves.
+ * upload's ledger entry (see uploads-ledger.ts) lets the sweep remove whatever a crash leaves.
  */
 export async function attachPhoto(input: AttachInput): Promise<number> {
   const { ownerId, couponId, key, regions } = input;

@@ -1,15 +1,15 @@
 import { asc, eq, inArray } from 'drizzle-orm';
-import { alloys, couponLayers, coupons, photos, regions, swatches } from '../../../db/schema';
-import { nearestTint } from '../photo-tints';
-import type { PhotoView, RegionInput, SwatchGroup, SwatchView } from '../photos';
-import { db } from './db';
-import { decodeForAnalysis } from './image';
-import { decodeAnalysisImage, analyseRegions } from './photo-analysis';
-import { folderOf, viewUrl } from './photo-files';
-import { isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions, type Transaction } from './photo-records';
-import { Refused } from './refusal';
-import { deleteObjects, getObject, listKeys } from './storage';
-import { dropEntry, forgetLater, type LedgerEntry } from './uploads';
+import { alloys, couponLayers, coupons, photos, regions, swatches } from '../../../../db/schema';
+import { nearestTint } from '../../photo-tints';
+import type { PhotoView, RegionInput, SwatchGroup, SwatchView } from '../../photos';
+import { db } from '../db';
+import { decodeForAnalysis } from './decode';
+import { decodeAnalysisImage, analyseRegions } from './measure';
+import { folderOf, viewUrl } from './keys';
+import { isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions, type Transaction } from './records';
+import { Refused } from '../refusal';
+import { deleteObjects, getObject, listKeys } from '../storage';
+import { dropEntry, forgetLater, type LedgerEntry } from './uploads-ledger';
 
 export type PhotoRecord = typeof photos.$inferSelect;
 

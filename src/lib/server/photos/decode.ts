@@ -10,8 +10,8 @@ import {
   type Region,
   type RegionAnalysis,
   type WhiteBalance,
-} from '../analysis';
-import { decodeHeic, isHeic } from './heic';
+} from '../../analysis';
+import { decodeHeic, isHeic } from './heic-worker';
 
 /** Photos above 100 megapixels are refused before decoding (a 50 MP camera is 8688×5792). */
 export const MAX_INPUT_PIXELS = 100_000_000;
@@ -325,4 +325,4 @@ async function withoutMetadata(opened: OpenedImage): Promise<PositionFreeOrigina
   return { data: await pipeline.jpeg({ quality: 95, chromaSubsampling: '4:4:4' }).toBuffer(), contentType: 'image/jpeg' };
 }
 
-export { AnalysisInputError } from '../analysis';
+export { AnalysisInputError } from '../../analysis';

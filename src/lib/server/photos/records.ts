@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
-import { couponLayers, coupons, photos, regions, swatches } from '../../../db/schema';
-import type { Database } from '../../../db/client';
-import type { Swatch } from '../analysis';
-import type { RegionInput } from '../photos';
-import type { PhotoAnalysis, PhotoExif } from './image';
+import { couponLayers, coupons, photos, regions, swatches } from '../../../../db/schema';
+import type { Database } from '../../../../db/client';
+import type { Swatch } from '../../analysis';
+import type { RegionInput } from '../../photos';
+import type { PhotoAnalysis, PhotoExif } from './decode';
 
 /** Writing a photo's row, regions and swatches. Takes the database or a transaction (the seed passes its own). */
 type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;

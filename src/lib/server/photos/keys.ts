@@ -1,7 +1,6 @@
 import { randomBytes, randomUUID } from 'node:crypto';
-import { PHOTO_TYPES, type PhotoContentType } from '../photos';
-import { userPrefix } from './photo-keys';
-import { presignGet } from './storage';
+import { PHOTO_TYPES, type PhotoContentType } from '../../photos';
+import { presignGet } from '../storage';
 
 /**
  * Where a photo's files live. Each upload gets its own folder under the owner's prefix,
@@ -9,6 +8,11 @@ import { presignGet } from './storage';
  * so the folder is the unit the sweep and deletion clear. Derived names carry a random tag per
  * attempt, so two attaches of one upload racing each other never overwrite each other's files.
  */
+
+/** Every object a person uploads or we derive from it lives under their own prefix. */
+export const userPrefix = (userId: string) => `users/${userId}/`;
+
+export const isUsersKey = (userId: string, key: string) => key.startsWith(userPrefix(userId)) && !key.includes('..');
 
 export const newUploadKey = (userId: string, contentType: PhotoContentType) => `${userPrefix(userId)}photos/${randomUUID()}/original.${PHOTO_TYPES[contentType]}`;
 
