@@ -72,7 +72,8 @@ async function main(): Promise<number> {
     console.error(`analyze: cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
     return 2;
   }
-  const { analysePhoto, ImageRejected } = await import('../src/lib/server/photos/decode');
+  const { ImageRejected } = await import('../src/lib/server/photos/decode');
+  const { analysePhoto } = await import('../src/lib/server/photos/measure');
   try {
     const analysis = await analysePhoto(buffer, options);
     process.stdout.write(`${JSON.stringify({ file, ...analysis }, null, 2)}\n`);

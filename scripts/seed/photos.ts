@@ -5,10 +5,10 @@ import { asc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { alloys, couponLayers, coupons, photos } from '../../db/schema';
 import type { RegionInput } from '../../src/lib/photos';
-import { analyseRegions } from '../../src/lib/server/photos/measure';
+import { developPhoto } from '../../src/lib/server/photos/attach';
 import { newUploadKey } from '../../src/lib/server/photos/keys';
-import { insertPhoto, layerAlloys, photoTransaction, writeRegions } from '../../src/lib/server/photos/records';
-import { processPhotoInTurn, writeDerivedFiles } from '../../src/lib/server/photos/store';
+import { photoTransaction, recordPhoto } from '../../src/lib/server/photos/records';
+import { storeFiles } from '../../src/lib/server/photos/store';
 import { putObject, s3 } from '../../src/lib/server/storage';
 import { anodizeThicknessNm, colourAt, findTintModel, heatThicknessNm, MAX_THICKNESS_NM } from '../../src/lib/tint';
 import { seededChoices } from './random';
@@ -145,13 +145,11 @@ async function demoCoupons(db: Database): Promise<DemoCoupon[]> {
 async function storeDemoPhoto(db: Database, coupon: DemoCoupon, scene: DemoPhoto): Promise<void> {
   const key = newUploadKey(coupon.ownerId, 'image/jpeg');
   await putObject(key, scene.jpeg, 'image/jpeg');
-  const processed = await processPhotoInTurn(scene.jpeg);
-  const analysis = analyseRegions(processed.analysisImage, scene.regions);
-  const files = await writeDerivedFiles(key, scene.jpeg.length, processed);
-  await photoTransaction(db, async (tx) => {
-    const id = await insertPhoto(tx, { couponId: coupon.id, ownerId: coupon.ownerId, width: processed.width, height: processed.height, exif: processed.exif, ...files });
-    await writeRegions(tx, { id, couponId: coupon.id }, scene.regions, analysis, await layerAlloys(tx, coupon.id), { replacing: false });
-  });
+  const developed = await developPhoto(scene.jpeg, { regions: scene.regions, layerIds: coupon.layers.map((layer) => layer.id) });
+  const files = await storeFiles({ key, byteSize: scene.jpeg.length, contentType: developed.contentType }, developed.derived);
+  await photoTransaction(db, (tx) =>
+    recordPhoto(tx, { couponId: coupon.id, ownerId: coupon.ownerId, decoded: developed, files, regions: scene.regions, analysis: developed.analysis }),
+  );
 }
 
 /**

@@ -13,7 +13,7 @@ import { converter, differenceCiede2000 } from 'culori';
 import { alloys, couponLayers, photos, regions, swatches, uploads } from '../../db/schema';
 import type { PhotoView, RegionInput, SwatchView } from '../../src/lib/photos';
 import { db as appDb } from '../../src/lib/server/db';
-import { analysePhoto } from '../../src/lib/server/photos/decode';
+import { analysePhoto } from '../../src/lib/server/photos/measure';
 import { getObject, objectSize, s3 } from '../../src/lib/server/storage';
 import { STALE_AFTER_MINUTES } from '../../src/lib/server/photos/uploads-ledger';
 import { api, newJar, type Jar } from '../support/app';

@@ -6,8 +6,8 @@ import type { SessionUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
-import { lockCoupon, photoTransaction } from './photos/records';
-import { forgetCouponPhotos, removePhotoFiles } from './photos/views';
+import { forgetCouponPhotos, removePhotoFiles } from './photos/deletion';
+import { findPhoto, lockCoupon, photoTransaction, type PhotoWithCoupon } from './photos/records';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
@@ -75,12 +75,20 @@ function withLayers(row: Omit<CouponRecord, 'layers' | 'layerDetails'>, layers: 
   return { ...row, layers: layers.map((layer) => layer.alloy), layerDetails: layers };
 }
 
-/** The coupon a route's `[id]` names, or a 404 (callers check access). */
-export async function couponFromRoute(params: Record<string, string | undefined>): Promise<CouponRecord | Response> {
-  const id = routeId(params, 'That coupon');
+type RouteParams = Record<string, string | undefined>;
+
+/** What a route's `[id]` names, or a 404 naming what was looked for (callers check access). */
+async function fromRoute<T>(params: RouteParams, what: string, find: (id: number) => Promise<T | undefined>): Promise<T | Response> {
+  const id = routeId(params, what);
   if (typeof id !== 'number') return id;
-  return (await findCoupon(id)) ?? problem(404, 'That coupon was not found.');
+  return (await find(id)) ?? problem(404, `${what} was not found.`);
 }
+
+/** The coupon a route's `[id]` names, or a 404 (callers check access). */
+export const couponFromRoute = (params: RouteParams): Promise<CouponRecord | Response> => fromRoute(params, 'That coupon', findCoupon);
+
+/** The photo a route's `[id]` names, with its coupon's owner and visibility, or a 404 (callers check access). */
+export const photoFromRoute = (params: RouteParams): Promise<PhotoWithCoupon | Response> => fromRoute(params, 'That photo', findPhoto);
 
 /** One coupon with its layers, whoever owns it (callers check access). */
 export async function findCoupon(id: number): Promise<CouponRecord | undefined> {

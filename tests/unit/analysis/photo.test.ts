@@ -9,14 +9,22 @@ import sharp from 'sharp';
 import exifr from 'exifr';
 import { converter, differenceCiede2000 } from 'culori';
 import type { Swatch } from '../../../src/lib/analysis';
-import { analyseDecoded, analysePhoto, ImageRejected, MAX_INPUT_PIXELS, processPhoto } from '../../../src/lib/server/photos/decode';
+import { decodePhoto, ImageRejected, MAX_INPUT_PIXELS } from '../../../src/lib/server/photos/decode';
+import { deriveFiles } from '../../../src/lib/server/photos/derived-files';
 import { isHeic } from '../../../src/lib/server/photos/heic-worker';
+import { analyseDecoded, analysePhoto } from '../../../src/lib/server/photos/measure';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../../fixtures/synthetic-photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/colour/delta-e.test.ts and conversions.test.ts).
 const ciede2000 = differenceCiede2000();
 const toLab65 = converter('lab65');
 const deltaE = (swatch: Swatch, hex: string) => ciede2000(toLab65(hex)!, { mode: 'lab65', ...swatch.lab });
+
+/** A photo decoded and its files derived, as an upload is before its files are stored. */
+async function processPhoto(buffer: Uint8Array) {
+  const decoded = await decodePhoto(buffer);
+  return { ...decoded, ...(await deriveFiles(decoded)) };
+}
 
 let workDir: string;
 beforeAll(() => {

@@ -1,14 +1,22 @@
 import { checkRegions, TOO_BIG } from '../../photo-requests';
-import { kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind, type RegionInput } from '../../photos';
+import { MAX_UPLOAD_BYTES, type PhotoContentType, type RegionInput } from '../../photos';
 import { db } from '../db';
-import { ImageRejected } from './decode';
-import { analyseRegions } from './measure';
-import { isUsersKey } from './keys';
-import { insertPhoto, isMissingParent, layerAlloys, lockCoupon, photoTransaction, writeRegions } from './records';
-import { decodedContentType, processPhotoInTurn, writeDerivedFiles } from './store';
 import { Refused } from '../refusal';
 import { deleteObjects, getObject, headObject } from '../storage';
+import { decodePhoto, ImageRejected, inDecodeTurn } from './decode';
+import { deriveFiles, type DerivedFiles } from './derived-files';
+import { isUsersKey } from './keys';
+import { analyseRegions, type PhotoAnalysis } from './measure';
+import { isMissingParent, lockCoupon, photoTransaction, recordPhoto, type DecodedFacts } from './records';
+import { storeFiles } from './store';
 import { claimUpload, dropEntry, forgetLater, settleUpload, type Declared } from './uploads-ledger';
+
+/**
+ * Attaching an uploaded photo to a coupon, the walk of an upload after its PUT to storage, one
+ * way: the upload is claimed and its stored file checked against what was declared, then the
+ * photo is decoded (decode.ts), measured (measure.ts), its files derived (derived-files.ts) and
+ * stored (store.ts), and its rows written (records.ts).
+ */
 
 export interface AttachInput {
   ownerId: string;
@@ -31,6 +39,30 @@ const bareType = (type: string | undefined) => (type ?? '').split(';')[0].trim()
 async function retireUpload(ownerId: string, key: string, declared: Declared): Promise<void> {
   await deleteObjects([key]);
   await forgetLater(db(), { key, ownerId, ...declared }, new Date());
+}
+
+/** A photo decoded, measured and with its files derived, ready to store: nothing of the decoder's pixels is kept. */
+export interface DevelopedPhoto extends DecodedFacts {
+  contentType: PhotoContentType;
+  analysis: PhotoAnalysis;
+  derived: DerivedFiles;
+}
+
+/**
+ * Decodes a photo, checks its regions against it, measures them and derives its files, a few
+ * photos at a time per process. With `declared`, a file of another kind is refused. Throws
+ * ImageRejected for a file that cannot be used, Refused for regions that do not fit the photo.
+ */
+export function developPhoto(bytes: Uint8Array, request: { regions: RegionInput[]; layerIds: number[]; declared?: PhotoContentType }): Promise<DevelopedPhoto> {
+  return inDecodeTurn(async () => {
+    const decoded = await decodePhoto(bytes, request.declared);
+    const outside = checkRegions(request.regions, request.layerIds, decoded);
+    if (outside) throw new Refused(400, outside.message, outside.field);
+    const analysis = analyseRegions(decoded.analysisImage, request.regions);
+    const derived = await deriveFiles(decoded);
+    const { width, height, exif, contentType } = decoded;
+    return { width, height, exif, contentType, analysis, derived };
+  });
 }
 
 /**
@@ -72,17 +104,12 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   // Sent again between the two reads: what counts is what was read.
   if (bytes.length !== declared.byteSize) throw await refuse(422, sizeMismatch(bytes.length, declared.byteSize));
 
-  const processed = await processPhotoInTurn(bytes).catch(async (error: unknown) => {
+  const developed = await developPhoto(bytes, { regions, layerIds: input.layerIds, declared: declared.contentType }).catch(async (error: unknown) => {
     if (!(error instanceof ImageRejected)) throw error;
     throw await refuse(422, error.message);
   });
-  const decoded = decodedContentType(processed);
-  if (!sameImageKind(decoded, declared.contentType)) throw await refuse(422, kindMismatchMessage(decoded, declared.contentType));
-  const outside = checkRegions(regions, input.layerIds, processed);
-  if (outside) throw new Refused(400, outside.message, outside.field);
-  const analysis = analyseRegions(processed.analysisImage, regions);
 
-  const files = await writeDerivedFiles(key, bytes.length, processed);
+  const files = await storeFiles({ key, byteSize: bytes.length, contentType: developed.contentType }, developed.derived);
   const couponGone = new Refused(404, 'That coupon was not found.');
   let photoId: number;
   try {
@@ -92,9 +119,7 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
       // The uploaded file still carries its GPS position: its entry stays until the file is deleted
       // below, and while its URL may still be used, so a file sent to it again is swept too.
       if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: declared.contentType, byteSize: bytes.length }, new Date());
-      const id = await insertPhoto(tx, { couponId, ownerId, width: processed.width, height: processed.height, exif: processed.exif, ...files });
-      await writeRegions(tx, { id, couponId }, regions, analysis, await layerAlloys(tx, couponId), { replacing: false });
-      return id;
+      return recordPhoto(tx, { couponId, ownerId, decoded: developed, files, regions, analysis: developed.analysis });
     });
   } catch (error) {
     // Deleted here, or (when that fails) swept with the upload's folder: its entry is still there.

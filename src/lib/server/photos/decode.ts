@@ -1,28 +1,24 @@
 import sharp from 'sharp';
-import exifr from 'exifr';
-import {
-  analyseImage,
-  AnalysisOptionsSchema,
-  clipRegion,
-  scaleRegion,
-  type AnalysisOptions,
-  type PixelImage,
-  type Region,
-  type RegionAnalysis,
-  type WhiteBalance,
-} from '../../analysis';
+import type { PixelImage } from '../../analysis';
+import { kindMismatchMessage, sameImageKind, type PhotoContentType } from '../../photos';
 import { decodeHeic, isHeic } from './heic-worker';
+import { carriesPosition, readExif, type PhotoExif } from './metadata';
+
+/**
+ * The first step of an upload: decoding the file. What kind of image it really is, its upright
+ * size, the shrunk copy colours are measured on and what its metadata says — or why it cannot be
+ * used (ImageRejected, with a message for the person who uploaded it). Also decodes the stored
+ * analysis copy for a region edit.
+ */
 
 /** Photos above 100 megapixels are refused before decoding (a 50 MP camera is 8688×5792). */
 export const MAX_INPUT_PIXELS = 100_000_000;
 /** Long side of the copy colours are measured on; JPEGs are decoded straight at 1/2, 1/4 or 1/8 scale. */
 export const ANALYSIS_LONG_SIDE = 1024;
-export const DISPLAY_LONG_SIDE = 2048;
-export const THUMBNAIL_LONG_SIDE = 400;
 
 const ACCEPTED_FORMATS = new Set(['jpeg', 'png', 'webp', 'heif']);
 
-export type ImageRejectedCode = 'not-an-image' | 'truncated' | 'empty' | 'too-many-pixels' | 'unsupported';
+export type ImageRejectedCode = 'not-an-image' | 'truncated' | 'empty' | 'too-many-pixels' | 'unsupported' | 'not-as-declared';
 
 const REJECTION_MESSAGES: Record<ImageRejectedCode, string> = {
   empty: 'The file is empty.',
@@ -30,6 +26,7 @@ const REJECTION_MESSAGES: Record<ImageRejectedCode, string> = {
   truncated: 'The image is cut short or damaged. Upload the original file again.',
   'too-many-pixels': `The image has more than ${MAX_INPUT_PIXELS / 1_000_000} megapixels. Upload a smaller copy.`,
   unsupported: 'This kind of image is not accepted. Upload a JPEG, PNG, WebP or HEIC photo.',
+  'not-as-declared': 'The file is another kind of image than the one declared. Upload the photo again.',
 };
 
 /** A photo that cannot be used; `message` is written for the person who uploaded it. */
@@ -52,8 +49,18 @@ function rejectionFor(error: unknown): ImageRejected {
   return new ImageRejected('truncated');
 }
 
+export type ImageFormat = 'jpeg' | 'png' | 'webp' | 'heif' | 'heic';
+
+const CONTENT_TYPES: Record<ImageFormat, PhotoContentType> = {
+  jpeg: 'image/jpeg',
+  png: 'image/png',
+  webp: 'image/webp',
+  heif: 'image/heif',
+  heic: 'image/heic',
+};
+
 interface OpenedImage {
-  format: 'jpeg' | 'png' | 'webp' | 'heif' | 'heic';
+  format: ImageFormat;
   /** Size of the upright (EXIF-rotated) full-size image. */
   width: number;
   height: number;
@@ -83,16 +90,18 @@ async function openImage(buffer: Uint8Array): Promise<OpenedImage> {
   if (width * height > MAX_INPUT_PIXELS) throw new ImageRejected('too-many-pixels');
   const turned = orientation >= 5;
   return {
-    format: metadata.format as OpenedImage['format'],
+    format: metadata.format as ImageFormat,
     width: turned ? height : width,
     height: turned ? width : height,
     pipeline: () => sharp(buffer, { limitInputPixels: MAX_INPUT_PIXELS }).rotate(),
   };
 }
 
-const fitInside = (longSide: number) => ({ width: longSide, height: longSide, fit: 'inside' as const, withoutEnlargement: true });
+/** Resize options: at most `longSide` pixels on the long side, never enlarged. */
+export const fitInside = (longSide: number) => ({ width: longSide, height: longSide, fit: 'inside' as const, withoutEnlargement: true });
 
-async function toPixels(pipeline: sharp.Sharp): Promise<PixelImage> {
+/** Runs a pipeline to sRGB pixels; a file that fails to decode is an ImageRejected. */
+export async function toPixels(pipeline: sharp.Sharp): Promise<PixelImage> {
   const { data, info } = await pipeline
     .toColourspace('srgb')
     .raw()
@@ -122,207 +131,51 @@ export async function decodeForAnalysis(buffer: Uint8Array): Promise<AnalysisIma
   return shrinkForAnalysis(await openImage(buffer));
 }
 
-/** The analysis of a photo; regions are in pixels of the upright full-size image. */
-export interface PhotoAnalysis {
-  width: number;
-  height: number;
-  /** Size of the shrunk copy the colours were measured on. */
-  analysedWidth: number;
-  analysedHeight: number;
-  whiteBalance: WhiteBalance | null;
-  regions: RegionAnalysis[];
+/** The stored analysis copy (a lossless PNG, see derived-files.ts) back as pixels, standing for the photo's full size. */
+export async function decodeAnalysisCopy(png: Uint8Array, fullSize: { width: number; height: number }): Promise<AnalysisImage> {
+  const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });
+  const pixels: PixelImage = { data: new Uint8Array(data.buffer, data.byteOffset, data.length), width: info.width, height: info.height, channels: info.channels as 3 | 4 };
+  return { ...fullSize, pixels };
 }
 
-/**
- * Analyses an already decoded photo. Regions (and the grey card) are given in pixels of the
- * upright full-size photo and mapped onto the shrunk copy; results name them as given (clipped
- * to the photo). Throws AnalysisInputError for a region outside the photo or an unusable grey card.
- */
-export function analyseDecoded(image: AnalysisImage, options: AnalysisOptions = {}): PhotoAnalysis {
-  const parsed = AnalysisOptionsSchema.parse(options);
-  const full = { width: image.width, height: image.height };
-  const toShrunk = (region: Region) => scaleRegion(region, full, image.pixels);
-  const requested = parsed.regions.length > 0 ? parsed.regions.map((region) => clipRegion(region, full)) : [{ x: 0, y: 0, ...full }];
-  const analysis = analyseImage(image.pixels, {
-    ...parsed,
-    regions: requested.map(toShrunk),
-    grey: parsed.grey && toShrunk(parsed.grey),
-  });
-  return {
-    width: image.width,
-    height: image.height,
-    analysedWidth: image.pixels.width,
-    analysedHeight: image.pixels.height,
-    whiteBalance: analysis.whiteBalance && { ...analysis.whiteBalance, grey: clipRegion(parsed.grey!, full) },
-    regions: analysis.regions.map((result, index) => ({ ...result, region: requested[index] })),
-  };
-}
-
-/** Decodes and analyses a photo: what the CLI and a region edit call. */
-export async function analysePhoto(buffer: Uint8Array, options: AnalysisOptions = {}): Promise<PhotoAnalysis> {
-  AnalysisOptionsSchema.parse(options);
-  return analyseDecoded(await decodeForAnalysis(buffer), options);
-}
-
-/** What is kept of a photo's EXIF. GPS position is never read. */
-export interface PhotoExif {
-  /** Local time as written by the camera, ISO 8601, with its offset when the camera recorded one. */
-  takenAt: string | null;
-  cameraMake: string | null;
-  cameraModel: string | null;
-  lens: string | null;
-  /** e.g. "1/125 s f/5.6 ISO 200". */
-  exposure: string | null;
-  whiteBalance: 'auto' | 'manual' | null;
-}
-
-const EXIF_OPTIONS = {
-  ifd0: { pick: ['Make', 'Model'] },
-  exif: { pick: ['DateTimeOriginal', 'OffsetTimeOriginal', 'ExposureTime', 'FNumber', 'ISO', 'LensModel', 'WhiteBalance'] },
-  gps: false,
-  ifd1: false,
-  interop: false,
-  xmp: false,
-  icc: false,
-  iptc: false,
-  jfif: false,
-  ihdr: false,
-  makerNote: false,
-  userComment: false,
-  reviveValues: false,
-  translateValues: false,
-};
-
-const text = (value: unknown) => (typeof value === 'string' && value.trim() ? value.trim() : null);
-const firstNumber = (value: unknown) => {
-  const number = Array.isArray(value) ? value[0] : value;
-  return typeof number === 'number' && Number.isFinite(number) && number > 0 ? number : null;
-};
-
-/** EXIF "YYYY:MM:DD HH:MM:SS" (+ optional "±HH:MM" offset) → ISO 8601, per CIPA DC-008 (Exif 2.32) §4.6.5. */
-export function formatTakenAt(dateTime: unknown, offset: unknown): string | null {
-  const match = typeof dateTime === 'string' && /^(\d{4}):(\d{2}):(\d{2}) (\d{2}):(\d{2}):(\d{2})/.exec(dateTime);
-  if (!match || match[1] === '0000') return null;
-  const zone = typeof offset === 'string' && /^[+-]\d{2}:\d{2}$/.test(offset) ? offset : '';
-  return `${match[1]}-${match[2]}-${match[3]}T${match[4]}:${match[5]}:${match[6]}${zone}`;
-}
-
-/** "1/125 s f/5.6 ISO 200"; parts the camera did not record are left out. */
-export function formatExposure(exposureTime: unknown, fNumber: unknown, iso: unknown): string | null {
-  const parts: string[] = [];
-  const seconds = firstNumber(exposureTime);
-  if (seconds) parts.push(seconds >= 1 ? `${Number(seconds.toFixed(1))} s` : `1/${Math.round(1 / seconds)} s`);
-  const aperture = firstNumber(fNumber);
-  if (aperture) parts.push(`f/${Number(aperture.toFixed(1))}`);
-  const speed = firstNumber(iso);
-  if (speed) parts.push(`ISO ${Math.round(speed)}`);
-  return parts.length ? parts.join(' ') : null;
-}
-
-export async function readExif(buffer: Uint8Array): Promise<PhotoExif> {
-  const tags: Record<string, unknown> = (await exifr.parse(buffer, EXIF_OPTIONS).catch(() => undefined)) ?? {};
-  const make = text(tags.Make);
-  let model = text(tags.Model);
-  if (make && model?.toLowerCase().startsWith(`${make.toLowerCase()} `)) model = model.slice(make.length + 1);
-  return {
-    takenAt: formatTakenAt(tags.DateTimeOriginal, tags.OffsetTimeOriginal),
-    cameraMake: make,
-    cameraModel: model,
-    lens: text(tags.LensModel),
-    exposure: formatExposure(tags.ExposureTime, tags.FNumber, tags.ISO),
-    whiteBalance: tags.WhiteBalance === 0 ? 'auto' : tags.WhiteBalance === 1 ? 'manual' : null,
-  };
-}
-
-export interface DerivedImage {
-  data: Buffer;
-  width: number;
-  height: number;
-  contentType: 'image/webp';
-}
-
-/** A full-size copy of an original that carried a GPS position, upright and without any metadata. */
-export interface PositionFreeOriginal {
-  data: Buffer;
-  contentType: 'image/jpeg' | 'image/png' | 'image/webp';
-}
-
-export interface ProcessedPhoto {
-  format: OpenedImage['format'];
-  /** Upright full-size dimensions; regions are drawn in these pixels. */
-  width: number;
-  height: number;
+export interface DecodedPhoto extends OpenedImage {
+  /** The content type of what the decoder found (never what the browser claimed). */
+  contentType: PhotoContentType;
   exif: PhotoExif;
-  /** ≤ 2048 px long side, WebP, no metadata at all. */
-  display: DerivedImage;
-  /** ≤ 400 px long side, WebP, no metadata at all. */
-  thumbnail: DerivedImage;
-  /** Pass to analyseDecoded() with the regions; gives the same numbers as analysePhoto(). */
+  /** True when the file records where it was taken; its original is then replaced by a copy without. */
+  carriesPosition: boolean;
+  /** Measure with analyseDecoded() or analyseRegions(); gives the same numbers as analysePhoto(). */
   analysisImage: AnalysisImage;
-  /** Null when the original carries no GPS position and may be kept as it is; else the copy to keep instead. */
-  positionFree: PositionFreeOriginal | null;
-}
-
-async function toWebp(pixels: PixelImage, longSide: number, quality: number): Promise<DerivedImage> {
-  const { width, height, channels } = pixels;
-  // sharp writes no EXIF, XMP or ICC unless asked (withMetadata/keepMetadata), so nothing carries over.
-  const { data, info } = await sharp(pixels.data, { raw: { width, height, channels } })
-    .resize(fitInside(longSide))
-    .webp({ quality })
-    .toBuffer({ resolveWithObject: true });
-  return { data, width: info.width, height: info.height, contentType: 'image/webp' };
 }
 
 /**
- * Everything the upload route needs from a photo: checked and decoded under the pixel limit,
- * turned upright, EXIF read (never GPS), a display WebP and a thumbnail without metadata, and
- * the shrunk copy for analysis. Throws ImageRejected for anything that is not a usable photo.
+ * Decodes a photo: checked under the pixel limit, turned upright, shrunk for analysis, its EXIF
+ * read (never GPS) and whether it records a position. With `declared`, a file that is another
+ * kind of image than the one declared is refused too. Throws ImageRejected for anything that is
+ * not a usable photo.
  */
-export async function processPhoto(buffer: Uint8Array): Promise<ProcessedPhoto> {
+export async function decodePhoto(buffer: Uint8Array, declared?: PhotoContentType): Promise<DecodedPhoto> {
   const opened = await openImage(buffer);
-  const upright = await toPixels(opened.pipeline().resize(fitInside(DISPLAY_LONG_SIDE)));
-  const [display, thumbnail, analysisImage, exif, positionFree] = await Promise.all([
-    toWebp(upright, DISPLAY_LONG_SIDE, 82),
-    toWebp(upright, THUMBNAIL_LONG_SIDE, 75),
-    shrinkForAnalysis(opened),
-    readExif(buffer),
-    carriesPosition(buffer).then((carries) => (carries ? withoutMetadata(opened) : null)),
-  ]);
-  return { format: opened.format, width: opened.width, height: opened.height, exif, display, thumbnail, analysisImage, positionFree };
+  const [analysisImage, exif, position] = await Promise.all([shrinkForAnalysis(opened), readExif(buffer), carriesPosition(buffer)]);
+  const contentType = CONTENT_TYPES[opened.format];
+  if (declared && !sameImageKind(contentType, declared)) throw new ImageRejected('not-as-declared', kindMismatchMessage(contentType, declared));
+  return { ...opened, contentType, exif, carriesPosition: position, analysisImage };
 }
 
-/** The EXIF block sharp found, as TIFF (sharp gives JPEG and WebP blocks with their "Exif\0\0" header). */
-function tiffOf(exif: Buffer): Buffer {
-  for (let offset = 0; offset + 4 <= Math.min(exif.length, 16); offset += 1) {
-    const mark = exif.toString('latin1', offset, offset + 4);
-    if (mark === 'II*\0' || mark === 'MM\0*') return exif.subarray(offset);
-  }
-  return exif;
-}
+/** At most this many photos are decoded at once per process: a 100 MP photo takes a few hundred MB while it is. */
+const DECODE_SLOTS = 2;
+let busy = 0;
+const waiting: (() => void)[] = [];
 
-/**
- * True when the file records where it was taken: a GPS position in its EXIF or XMP. Read through
- * sharp's metadata, which finds the EXIF of JPEG, PNG, WebP and HEIC alike.
- */
-export async function carriesPosition(buffer: Uint8Array): Promise<boolean> {
-  const metadata = await sharp(buffer).metadata().catch(() => undefined);
-  if (!metadata) return false;
-  if (metadata.xmp && /GPS(Latitude|Longitude)/.test(metadata.xmp.toString('latin1'))) return true;
-  if (!metadata.exif) return false;
+/** Runs work that decodes a photo (and derives its files) a few at a time (the HEIC decoder runs in its own thread; sharp in libuv's pool). */
+export async function inDecodeTurn<T>(work: () => Promise<T>): Promise<T> {
+  if (busy >= DECODE_SLOTS) await new Promise<void>((resolve) => waiting.push(resolve));
+  else busy += 1;
   try {
-    const position = await exifr.gps(tiffOf(metadata.exif));
-    return Boolean(position && (Number.isFinite(position.latitude) || Number.isFinite(position.longitude)));
-  } catch {
-    return true; // an EXIF block that cannot be read might still hold a position: play safe
+    return await work();
+  } finally {
+    const next = waiting.shift();
+    if (next) next();
+    else busy -= 1;
   }
 }
-
-/** The full-size upright image re-encoded without metadata: JPEG (q 95) for JPEG and HEIC, else its own format. */
-async function withoutMetadata(opened: OpenedImage): Promise<PositionFreeOriginal> {
-  const pipeline = opened.pipeline();
-  if (opened.format === 'png') return { data: await pipeline.png().toBuffer(), contentType: 'image/png' };
-  if (opened.format === 'webp') return { data: await pipeline.webp({ quality: 95 }).toBuffer(), contentType: 'image/webp' };
-  return { data: await pipeline.jpeg({ quality: 95, chromaSubsampling: '4:4:4' }).toBuffer(), contentType: 'image/jpeg' };
-}
-
-export { AnalysisInputError } from '../../analysis';

@@ -1,6 +1,5 @@
 import { randomBytes, randomUUID } from 'node:crypto';
 import { PHOTO_TYPES, type PhotoContentType } from '../../photos';
-import { presignGet } from '../storage';
 
 /**
  * Where a photo's files live. Each upload gets its own folder under the owner's prefix,
@@ -35,17 +34,4 @@ export function derivedKeys(originalKey: string): DerivedKeys {
     analysis: `${stem}analysis.png`,
     positionFree: (contentType) => `${stem}original.${PHOTO_TYPES[contentType]}`,
   };
-}
-
-/** How long a URL to show a photo stays valid, at least. */
-const VIEW_WINDOW_SECONDS = 15 * 60;
-
-/**
- * A presigned GET for showing a derived file to someone who may see it. Signed at the start of
- * the current 15-minute window and valid for two windows, so the URL stays the same for a while
- * (browsers cache the image) and is good for at least 15 minutes after it is handed out.
- */
-export function viewUrl(key: string, now = Date.now()): Promise<string> {
-  const windowStart = new Date(Math.floor(now / (VIEW_WINDOW_SECONDS * 1000)) * VIEW_WINDOW_SECONDS * 1000);
-  return presignGet(key, 2 * VIEW_WINDOW_SECONDS, windowStart);
 }

@@ -1,13 +1,70 @@
-import sharp from 'sharp';
-import type { PixelImage } from '../../analysis';
+import {
+  analyseImage,
+  AnalysisInputError,
+  AnalysisOptionsSchema,
+  clipRegion,
+  scaleRegion,
+  type AnalysisOptions,
+  type Region,
+  type RegionAnalysis,
+  type WhiteBalance,
+} from '../../analysis';
 import type { RegionInput } from '../../photos';
-import { analyseDecoded, AnalysisInputError, type AnalysisImage, type PhotoAnalysis } from './decode';
 import { Refused } from '../refusal';
+import { decodeForAnalysis, type AnalysisImage } from './decode';
 
 /**
- * From drawn regions to the analysis and back: layer regions are measured each on its own, in
- * the order given, white-balanced by the grey card when there is one; with no layer region the
- * whole photo is measured (its swatches then belong to no layer).
+ * Measuring a decoded photo's colours: the drawn regions mapped onto the shrunk analysis copy and
+ * measured there (src/lib/analysis does the colour work). The upload, a region edit, the seed and
+ * `npm run analyze` all measure through here, so they give the same numbers.
+ */
+
+/** The analysis of a photo; regions are in pixels of the upright full-size image. */
+export interface PhotoAnalysis {
+  width: number;
+  height: number;
+  /** Size of the shrunk copy the colours were measured on. */
+  analysedWidth: number;
+  analysedHeight: number;
+  whiteBalance: WhiteBalance | null;
+  regions: RegionAnalysis[];
+}
+
+/**
+ * Analyses an already decoded photo. Regions (and the grey card) are given in pixels of the
+ * upright full-size photo and mapped onto the shrunk copy; results name them as given (clipped
+ * to the photo). Throws AnalysisInputError for a region outside the photo or an unusable grey card.
+ */
+export function analyseDecoded(image: AnalysisImage, options: AnalysisOptions = {}): PhotoAnalysis {
+  const parsed = AnalysisOptionsSchema.parse(options);
+  const full = { width: image.width, height: image.height };
+  const toShrunk = (region: Region) => scaleRegion(region, full, image.pixels);
+  const requested = parsed.regions.length > 0 ? parsed.regions.map((region) => clipRegion(region, full)) : [{ x: 0, y: 0, ...full }];
+  const analysis = analyseImage(image.pixels, {
+    ...parsed,
+    regions: requested.map(toShrunk),
+    grey: parsed.grey && toShrunk(parsed.grey),
+  });
+  return {
+    width: image.width,
+    height: image.height,
+    analysedWidth: image.pixels.width,
+    analysedHeight: image.pixels.height,
+    whiteBalance: analysis.whiteBalance && { ...analysis.whiteBalance, grey: clipRegion(parsed.grey!, full) },
+    regions: analysis.regions.map((result, index) => ({ ...result, region: requested[index] })),
+  };
+}
+
+/** Decodes and analyses a photo: what the CLI calls. */
+export async function analysePhoto(buffer: Uint8Array, options: AnalysisOptions = {}): Promise<PhotoAnalysis> {
+  AnalysisOptionsSchema.parse(options);
+  return analyseDecoded(await decodeForAnalysis(buffer), options);
+}
+
+/**
+ * From drawn regions to the analysis: layer regions are measured each on its own, in the order
+ * given, white-balanced by the grey card when there is one; with no layer region the whole photo
+ * is measured (its swatches then belong to no layer). A region that cannot be measured is a 422.
  */
 export function analyseRegions(image: AnalysisImage, regions: RegionInput[]): PhotoAnalysis {
   const layers = regions.filter((region) => region.kind === 'layer');
@@ -19,19 +76,4 @@ export function analyseRegions(image: AnalysisImage, regions: RegionInput[]): Ph
     if (error instanceof AnalysisInputError) throw new Refused(422, error.message, 'regions');
     throw error;
   }
-}
-
-/**
- * The shrunk copy colours are measured on, as a lossless PNG: stored beside the photo, it gives
- * a region edit exactly the numbers a fresh decode of the original would, without the decode.
- */
-export async function encodeAnalysisImage(image: AnalysisImage): Promise<Buffer> {
-  const { data, width, height, channels } = image.pixels;
-  return sharp(data, { raw: { width, height, channels } }).png({ compressionLevel: 6 }).toBuffer();
-}
-
-export async function decodeAnalysisImage(png: Uint8Array, fullSize: { width: number; height: number }): Promise<AnalysisImage> {
-  const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });
-  const pixels: PixelImage = { data: new Uint8Array(data.buffer, data.byteOffset, data.length), width: info.width, height: info.height, channels: info.channels as 3 | 4 };
-  return { ...fullSize, pixels };
 }

@@ -3,11 +3,36 @@ import { couponLayers, coupons, photos, regions, swatches } from '../../../../db
 import type { Database } from '../../../../db/client';
 import type { Swatch } from '../../analysis';
 import type { RegionInput } from '../../photos';
-import type { PhotoAnalysis, PhotoExif } from './decode';
+import { db } from '../db';
+import type { PhotoAnalysis } from './measure';
+import { exifColumns, type PhotoExif } from './metadata';
+import type { PhotoFiles } from './store';
 
-/** Writing a photo's row, regions and swatches. Takes the database or a transaction (the seed passes its own). */
+/**
+ * A photo's rows: the photo, its regions and swatches — found, locked and written (the upload's
+ * last step). Writers take the database or a transaction (the seed passes its own).
+ */
+
 type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;
 export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
+export type PhotoRecord = typeof photos.$inferSelect;
+
+/** A photo with what its access check needs: the owner and visibility of its coupon. */
+export interface PhotoWithCoupon {
+  photo: PhotoRecord;
+  coupon: { id: number; ownerId: string; visibility: 'private' | 'members' | 'public' };
+}
+
+export async function findPhoto(id: number): Promise<PhotoWithCoupon | undefined> {
+  const [row] = await db()
+    .select({ photo: photos, coupon: { id: coupons.id, ownerId: coupons.ownerId, visibility: coupons.visibility } })
+    .from(photos)
+    .innerJoin(coupons, eq(coupons.id, photos.couponId))
+    .where(eq(photos.id, id));
+  return row;
+}
+
+export const photoExists = async (id: number) => (await db().select({ id: photos.id }).from(photos).where(eq(photos.id, id))).length > 0;
 
 const DEADLOCK = 1213;
 const errnoOf = (error: unknown) => {
@@ -42,32 +67,23 @@ export async function lockCoupon(tx: Pick<Database, 'select'>, couponId: number)
   return Boolean(row);
 }
 
-export interface PhotoFiles {
-  originalKey: string;
-  displayKey: string;
-  thumbKey: string;
-  analysisKey: string;
-  contentType: string;
-  byteSize: number;
+/** Locks a photo's coupon, then the photo (the order every photo write takes), or finds one gone (false). */
+export async function lockPhoto(tx: Transaction, photo: PhotoRecord): Promise<boolean> {
+  if (!(await lockCoupon(tx, photo.couponId))) return false;
+  const [locked] = await tx.select({ id: photos.id }).from(photos).where(eq(photos.id, photo.id)).for('update');
+  return Boolean(locked);
 }
 
-/** EXIF "taken at": with its offset it is an instant; without one it is the camera's wall clock, kept as if UTC. */
-export function takenAtDate(takenAt: string | null): Date | null {
-  if (!takenAt) return null;
-  const date = new Date(/[+-]\d{2}:\d{2}$/.test(takenAt) ? takenAt : `${takenAt}Z`);
-  return Number.isNaN(date.getTime()) ? null : date;
+/** What the decoder found that a photo's row keeps: its upright size and EXIF. */
+export interface DecodedFacts {
+  width: number;
+  height: number;
+  exif: PhotoExif;
 }
 
-export async function insertPhoto(
-  writer: Writer,
-  photo: { couponId: number; ownerId: string; width: number; height: number; exif: PhotoExif } & PhotoFiles,
-): Promise<number> {
+async function insertPhoto(writer: Writer, photo: { couponId: number; ownerId: string } & DecodedFacts & PhotoFiles): Promise<number> {
   const { exif, ...rest } = photo;
-  const camera = [exif.cameraMake, exif.cameraModel].filter(Boolean).join(' ') || null;
-  const [{ id }] = await writer
-    .insert(photos)
-    .values({ ...rest, takenAt: takenAtDate(exif.takenAt), camera, lens: exif.lens, exposure: exif.exposure, whiteBalance: exif.whiteBalance })
-    .$returningId();
+  const [{ id }] = await writer.insert(photos).values({ ...rest, ...exifColumns(exif) }).$returningId();
   return id;
 }
 
@@ -75,6 +91,11 @@ export async function insertPhoto(
 export async function layerAlloys(reader: Pick<Database, 'select'>, couponId: number): Promise<Map<number, number>> {
   const rows = await reader.select({ id: couponLayers.id, alloyId: couponLayers.alloyId }).from(couponLayers).where(eq(couponLayers.couponId, couponId));
   return new Map(rows.map((row) => [row.id, row.alloyId]));
+}
+
+/** The ids of a coupon's layers (none when the coupon is gone). */
+export async function layerIdsOf(couponId: number): Promise<number[]> {
+  return [...(await layerAlloys(db(), couponId)).keys()];
 }
 
 const swatchColumns = (swatch: Swatch) => ({
@@ -129,3 +150,20 @@ export async function writeRegions(
 
 /** MariaDB's "a foreign key constraint fails" when the coupon went while the photo was processed. */
 export const isMissingParent = (error: unknown) => errnoOf(error) === 1452;
+
+export interface NewPhoto {
+  couponId: number;
+  ownerId: string;
+  decoded: DecodedFacts;
+  files: PhotoFiles;
+  regions: RegionInput[];
+  analysis: PhotoAnalysis;
+}
+
+/** Within a transaction: writes a new photo's row, its regions and swatches. Returns its id. */
+export async function recordPhoto(tx: Writer, photo: NewPhoto): Promise<number> {
+  const { couponId, ownerId, decoded, files } = photo;
+  const id = await insertPhoto(tx, { couponId, ownerId, width: decoded.width, height: decoded.height, exif: decoded.exif, ...files });
+  await writeRegions(tx, { id, couponId }, photo.regions, photo.analysis, await layerAlloys(tx, couponId), { replacing: false });
+  return id;
+}

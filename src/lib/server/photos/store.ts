@@ -1,61 +1,50 @@
 import type { PhotoContentType } from '../../photos';
-import { processPhoto, type ProcessedPhoto } from './decode';
-import { encodeAnalysisImage } from './measure';
+import { deleteObjects, presignGet, putObject } from '../storage';
+import type { DerivedFiles } from './derived-files';
 import { derivedKeys } from './keys';
-import type { PhotoFiles } from './records';
-import { deleteObjects, putObject } from '../storage';
 
-/** At most this many photos are decoded at once per process: a 100 MP photo takes a few hundred MB while it is. */
-const DECODE_SLOTS = 2;
-let busy = 0;
-const waiting: (() => void)[] = [];
+/**
+ * A photo's files in storage: the derived files written beside the original, and short-lived URLs
+ * to show them to someone who may see the photo.
+ */
 
-async function inSlot<T>(work: () => Promise<T>): Promise<T> {
-  if (busy >= DECODE_SLOTS) await new Promise<void>((resolve) => waiting.push(resolve));
-  else busy += 1;
-  try {
-    return await work();
-  } finally {
-    const next = waiting.shift();
-    if (next) next();
-    else busy -= 1;
-  }
+/** Where a photo's files are, and what its original is, as its row records them. */
+export interface PhotoFiles {
+  originalKey: string;
+  displayKey: string;
+  thumbKey: string;
+  analysisKey: string;
+  contentType: string;
+  byteSize: number;
 }
 
-/** processPhoto, a few at a time (the HEIC decoder runs in its own thread; sharp in libuv's pool). */
-export const processPhotoInTurn = (original: Uint8Array) => inSlot(() => processPhoto(original));
-
-const CONTENT_TYPES: Record<ProcessedPhoto['format'], PhotoContentType> = {
-  jpeg: 'image/jpeg',
-  png: 'image/png',
-  webp: 'image/webp',
-  heif: 'image/heif',
-  heic: 'image/heic',
-};
-
-/** The content type of what the decoder found (never what the browser claimed). */
-export const decodedContentType = (processed: Pick<ProcessedPhoto, 'format'>): PhotoContentType => CONTENT_TYPES[processed.format];
+/** The uploaded original: its key, size, and the content type the decoder found. */
+export interface StoredOriginal {
+  key: string;
+  byteSize: number;
+  contentType: PhotoContentType;
+}
 
 /**
  * Writes the display WebP, the thumbnail and the analysis copy beside the original (and, when
  * the original carries a GPS position, a copy without it that then stands as the original).
  * All or nothing: if one write fails, the others are deleted again.
  */
-export async function writeDerivedFiles(originalKey: string, originalBytes: number, processed: ProcessedPhoto): Promise<PhotoFiles & { written: string[] }> {
-  const keys = derivedKeys(originalKey);
-  const replacement = processed.positionFree;
+export async function storeFiles(original: StoredOriginal, derived: DerivedFiles): Promise<PhotoFiles & { written: string[] }> {
+  const keys = derivedKeys(original.key);
+  const replacement = derived.positionFree;
   const files: PhotoFiles = {
-    originalKey: replacement ? keys.positionFree(replacement.contentType) : originalKey,
+    originalKey: replacement ? keys.positionFree(replacement.contentType) : original.key,
     displayKey: keys.display,
     thumbKey: keys.thumb,
     analysisKey: keys.analysis,
-    contentType: replacement ? replacement.contentType : decodedContentType(processed),
-    byteSize: replacement ? replacement.data.length : originalBytes,
+    contentType: replacement ? replacement.contentType : original.contentType,
+    byteSize: replacement ? replacement.data.length : original.byteSize,
   };
   const writes: [string, Uint8Array, string][] = [
-    [files.displayKey, processed.display.data, 'image/webp'],
-    [files.thumbKey, processed.thumbnail.data, 'image/webp'],
-    [files.analysisKey, await encodeAnalysisImage(processed.analysisImage), 'image/png'],
+    [files.displayKey, derived.display.data, 'image/webp'],
+    [files.thumbKey, derived.thumbnail.data, 'image/webp'],
+    [files.analysisKey, derived.analysisCopy, 'image/png'],
   ];
   if (replacement) writes.push([files.originalKey, replacement.data, replacement.contentType]);
   const written = writes.map(([key]) => key);
@@ -66,4 +55,17 @@ export async function writeDerivedFiles(originalKey: string, originalBytes: numb
     throw failed.reason;
   }
   return { ...files, written };
+}
+
+/** How long a URL to show a photo stays valid, at least. */
+const VIEW_WINDOW_SECONDS = 15 * 60;
+
+/**
+ * A presigned GET for showing a derived file to someone who may see it. Signed at the start of
+ * the current 15-minute window and valid for two windows, so the URL stays the same for a while
+ * (browsers cache the image) and is good for at least 15 minutes after it is handed out.
+ */
+export function viewUrl(key: string, now = Date.now()): Promise<string> {
+  const windowStart = new Date(Math.floor(now / (VIEW_WINDOW_SECONDS * 1000)) * VIEW_WINDOW_SECONDS * 1000);
+  return presignGet(key, 2 * VIEW_WINDOW_SECONDS, windowStart);
 }

@@ -1,17 +1,12 @@
 import type { APIRoute } from 'astro';
 import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
+import { photoFromRoute } from '../../../lib/server/coupons';
 import { json, problem } from '../../../lib/server/http';
-import { deletePhoto, findPhoto, photoView } from '../../../lib/server/photos/views';
-import { routeId } from '../../../lib/server/route-params';
-
-async function load(params: Record<string, string | undefined>) {
-  const id = routeId(params, 'That photo');
-  if (isResponse(id)) return id;
-  return (await findPhoto(id)) ?? problem(404, 'That photo was not found.');
-}
+import { deletePhoto } from '../../../lib/server/photos/deletion';
+import { photoView } from '../../../lib/server/photos/views';
 
 export const GET: APIRoute = async (context) => {
-  const found = await load(context.params);
+  const found = await photoFromRoute(context.params);
   if (isResponse(found)) return found;
   const denied = checkAccess(context.locals.user, found.coupon, 'see', 'That photo');
   if (denied) return denied;
@@ -23,7 +18,7 @@ export const GET: APIRoute = async (context) => {
 export const DELETE: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const found = await load(context.params);
+  const found = await photoFromRoute(context.params);
   if (isResponse(found)) return found;
   const denied = checkAccess(user, found.coupon, 'change', 'That photo');
   if (denied) return denied;

@@ -4,7 +4,8 @@ import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/ser
 import { couponFromRoute } from '../../../../lib/server/coupons';
 import { json, parseJson, problem } from '../../../../lib/server/http';
 import { attachPhoto } from '../../../../lib/server/photos/attach';
-import { findPhoto, photoView, photoViews } from '../../../../lib/server/photos/views';
+import { findPhoto } from '../../../../lib/server/photos/records';
+import { photoView, photoViews } from '../../../../lib/server/photos/views';
 import { refusalResponse } from '../../../../lib/server/refusal';
 
 /** The coupon's photos with regions and swatches, for anyone who may see the coupon. */
