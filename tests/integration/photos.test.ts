@@ -237,6 +237,20 @@ describe('who may see and change photos', () => {
     expect(await status(jars.member, '/api/photos/99999999', { method: 'DELETE' })).toBe(404);
     expect(await status(jars.member, '/api/photos/99999999/regions', { method: 'PUT', json: { regions: [] } })).toBe(404);
   });
+
+  // The same answer whether the id is no number or names no photo, so ids can't be probed.
+  it.each(['abc', '0', '-1', '1.5', '99999999'])('answers “That photo was not found.” for photo id %s, to every photo route', async (id) => {
+    const calls: [string, { method?: string; json?: unknown }][] = [
+      [`/api/photos/${id}`, {}],
+      [`/api/photos/${id}`, { method: 'DELETE' }],
+      [`/api/photos/${id}/regions`, { method: 'PUT', json: { regions: [] } }],
+    ];
+    for (const [path, init] of calls) {
+      const response = await api(path, { ...init, jar: jars.member });
+      expect(response.status, `${init.method ?? 'GET'} ${path}`).toBe(404);
+      expect(await response.json()).toEqual({ error: 'That photo was not found.' });
+    }
+  });
 });
 
 describe('deleting a photo', () => {
