@@ -71,7 +71,7 @@ describe('the heat planner with the library fit', () => {
     await expect(predict(jars.member2)).resolves.toMatchObject({ basis: 'library', couponCount: 5 });
     // The instructor has no private coupons here: public and members-only only.
     await expect(predict(jars.instructor)).resolves.toMatchObject({ basis: 'library', couponCount: 4 });
-    // Admins may see every coupon (authorise.ts canSee), so their library holds both private ones.
+    // Admins may see every coupon (maySee in src/lib/server/visibility.ts), so their library holds both private ones.
     await expect(predict(jars.admin)).resolves.toMatchObject({ basis: 'library', couponCount: 6 });
   });
 

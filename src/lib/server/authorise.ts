@@ -2,6 +2,7 @@ import type { APIContext } from 'astro';
 import { hasRole, type RoleName } from '../account';
 import { problem } from './http';
 import { findUserById, type UserRecord } from './users';
+import { mayChange, maySee, type CouponAccess, type Viewer } from './visibility';
 
 export interface SessionUser {
   id: string;
@@ -36,30 +37,13 @@ export async function requireRole(context: Context, role: RoleName): Promise<Gua
   return hasRole(user.role, role) ? user : forbidden();
 }
 
-export interface Owned {
-  ownerId: string | null;
-  visibility?: 'private' | 'members' | 'public';
-}
-
-/** Who may see an object: its owner, an admin, and anyone its visibility lets in. */
-export function canSee(user: Pick<SessionUser, 'id' | 'role'> | null, object: Owned): boolean {
-  if (object.visibility === 'public') return true;
-  if (!user) return false;
-  if (user.role === 'admin' || object.ownerId === user.id) return true;
-  return object.visibility === 'members';
-}
-
-/** Who may change an object: its owner or an admin. */
-export function canChange(user: Pick<SessionUser, 'id' | 'role'>, object: Owned): boolean {
-  return user.role === 'admin' || object.ownerId === user.id;
-}
-
 /**
- * The ownership check every route uses: 404 when the object doesn't exist or may not be seen
- * (so existence doesn't leak), 403 when it may be seen but not changed.
+ * The ownership check every route uses, by the rule in visibility.ts: 404 when the coupon (of a
+ * photo) doesn't exist or may not be seen (so existence doesn't leak), 403 when it may be seen but
+ * not changed, 401 for a visitor who would have to sign in to change it.
  */
-export function checkAccess(user: Pick<SessionUser, 'id' | 'role'> | null, object: Owned | undefined, action: 'see' | 'change', what = 'That'): Response | null {
-  if (!object || !canSee(user, object)) return notFound(what);
-  if (action === 'change' && (!user || !canChange(user, object))) return user ? forbidden() : unauthenticated();
+export function checkAccess(user: Viewer | null, coupon: CouponAccess | undefined, action: 'see' | 'change', what = 'That'): Response | null {
+  if (!coupon || !maySee(user, coupon)) return notFound(what);
+  if (action === 'change' && !mayChange(user, coupon)) return user ? forbidden() : unauthenticated();
   return null;
 }

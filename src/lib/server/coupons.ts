@@ -1,15 +1,13 @@
-import { and, asc, count, desc, eq, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../../db/schema';
 import { layerKeyOf } from '../alloys';
 import type { Coupon, Visibility } from '../coupons';
-import type { SessionUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
+import { mayChange, visibleCoupons, type Viewer } from './visibility';
 import { forgetCouponPhotos, removePhotoFiles } from './photos/deletion';
 import { findPhoto, lockCoupon, photoTransaction, type PhotoWithCoupon } from './photos/records';
-
-type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
 export interface CouponLayer {
   id: number;
@@ -27,13 +25,6 @@ export type CouponRecord = Coupon & {
   updatedAt: Date;
   layerDetails: CouponLayer[];
 };
-
-/** The visibility rules, in SQL: everyone sees public; members also members-only; owners their own; admins all. */
-export function visibleTo(viewer: Viewer): SQL | undefined {
-  if (viewer?.role === 'admin') return undefined;
-  if (!viewer) return eq(coupons.visibility, 'public');
-  return or(inArray(coupons.visibility, ['public', 'members']), eq(coupons.ownerId, viewer.id));
-}
 
 const couponColumns = {
   id: coupons.id,
@@ -104,8 +95,8 @@ export interface CouponListOptions {
 }
 
 /** Coupons the viewer may see, newest first, with the total for paging. */
-export async function listCoupons(viewer: Viewer, options: CouponListOptions): Promise<{ coupons: CouponRecord[]; total: number }> {
-  const where = and(visibleTo(viewer), options.ownerId ? eq(coupons.ownerId, options.ownerId) : undefined);
+export async function listCoupons(viewer: Viewer | null, options: CouponListOptions): Promise<{ coupons: CouponRecord[]; total: number }> {
+  const where = and(visibleCoupons(viewer), options.ownerId ? eq(coupons.ownerId, options.ownerId) : undefined);
   const rows = await db()
     .select(couponColumns)
     .from(coupons)
@@ -198,11 +189,11 @@ export function heatRecordOf(coupon: CouponRecord): Coupon {
 }
 
 /** A coupon as the API answers it: no owner id, but whether the viewer may change it. */
-export function couponView(coupon: CouponRecord, viewer: Viewer) {
+export function couponView(coupon: CouponRecord, viewer: Viewer | null) {
   const { ownerId, layerDetails, ...rest } = coupon;
   return {
     ...rest,
     layers: layerDetails.map(({ position, alloy, alloyName }) => ({ position, alloy, alloyName })),
-    canEdit: Boolean(viewer && (viewer.role === 'admin' || viewer.id === ownerId)),
+    canEdit: mayChange(viewer, { ownerId }),
   };
 }

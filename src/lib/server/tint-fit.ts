@@ -2,19 +2,17 @@ import { and, eq, inArray, isNotNull, or, sql, type SQL } from 'drizzle-orm';
 import { alloys, coupons, swatches } from '../../../db/schema';
 import type { Lab } from '../colour';
 import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit } from '../tint';
-import type { SessionUser } from './authorise';
 import { db } from './db';
+import { visibleCoupons, type Viewer } from './visibility';
 
 /**
  * The library fit of an alloy's growth laws, for one signed-in person: fitted to the coupons they
- * may see (public, members-only and their own) that have swatches for a layer of that alloy.
+ * may see (visibleCoupons in visibility.ts) that have swatches for a layer of that alloy.
  *
  * Fits are kept in this process's memory keyed by alloy and audience, with a version read from
  * the database on every request (count, id sum and last edit of the coupons' swatches), so a new,
  * edited, re-shared or deleted coupon refits here and in every other app process alike.
  */
-
-export type Viewer = Pick<SessionUser, 'id' | 'role'>;
 
 /** Heat processes whose coupons feed the heat law; only heats in air (the priors are for air). */
 const HEAT_PROCESSES = ['oven', 'forge', 'torch', 'induction'] as const;
@@ -27,15 +25,9 @@ const usableCoupon = or(
   and(eq(coupons.process, 'anodize'), isNotNull(coupons.volts)),
 );
 
-/** The library a person may see: admins all of it; others public, members-only and their own. */
-function visibleTo(viewer: Viewer): SQL | undefined {
-  if (viewer.role === 'admin') return undefined;
-  return or(inArray(coupons.visibility, ['public', 'members']), eq(coupons.ownerId, viewer.id));
-}
-
 /** Layer swatches of the alloy on coupons the viewer may see and the fit can use. */
 function relevantSwatches(slug: string, viewer: Viewer): SQL | undefined {
-  return and(eq(alloys.slug, slug), isNotNull(swatches.layerId), usableCoupon, visibleTo(viewer));
+  return and(eq(alloys.slug, slug), isNotNull(swatches.layerId), usableCoupon, visibleCoupons(viewer));
 }
 
 interface LibraryVersion {

@@ -4,6 +4,7 @@ import type { Database } from '../../../../db/client';
 import type { Swatch } from '../../analysis';
 import type { RegionInput } from '../../photos';
 import { db } from '../db';
+import type { CouponAccess } from '../visibility';
 import type { PhotoAnalysis } from './measure';
 import { exifColumns, type PhotoExif } from './metadata';
 import type { PhotoFiles } from './store';
@@ -20,7 +21,7 @@ export type PhotoRecord = typeof photos.$inferSelect;
 /** A photo with what its access check needs: the owner and visibility of its coupon. */
 export interface PhotoWithCoupon {
   photo: PhotoRecord;
-  coupon: { id: number; ownerId: string; visibility: 'private' | 'members' | 'public' };
+  coupon: { id: number } & CouponAccess;
 }
 
 export async function findPhoto(id: number): Promise<PhotoWithCoupon | undefined> {
