@@ -1,7 +1,9 @@
 import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../../db/schema';
 import { layerKeyOf } from '../alloys';
+import type { APIContext } from 'astro';
 import type { Coupon, Visibility } from '../coupons';
+import { checkAccess, isResponse, requireRole } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
@@ -80,6 +82,15 @@ export const couponFromRoute = (params: RouteParams): Promise<CouponRecord | Res
 
 /** The photo a route's `[id]` names, with its coupon's owner and visibility, or a 404 (callers check access). */
 export const photoFromRoute = (params: RouteParams): Promise<PhotoWithCoupon | Response> => fromRoute(params, 'That photo', findPhoto);
+
+/** The photo a route's `[id]` names, for a member (as the database has them now) who may change it; or the refusal. */
+export async function photoToChange(context: Pick<APIContext, 'locals' | 'params'>): Promise<PhotoWithCoupon | Response> {
+  const user = await requireRole(context, 'member');
+  if (isResponse(user)) return user;
+  const found = await photoFromRoute(context.params);
+  if (isResponse(found)) return found;
+  return checkAccess(user, found.coupon, 'change', 'That photo') ?? found;
+}
 
 /** One coupon with its layers, whoever owns it (callers check access). */
 export async function findCoupon(id: number): Promise<CouponRecord | undefined> {

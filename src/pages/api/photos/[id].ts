@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { photoFromRoute } from '../../../lib/server/coupons';
+import { checkAccess, isResponse } from '../../../lib/server/authorise';
+import { photoFromRoute, photoToChange } from '../../../lib/server/coupons';
 import { json, problem } from '../../../lib/server/http';
 import { deletePhoto } from '../../../lib/server/photos/deletion';
 import { photoView } from '../../../lib/server/photos/views';
@@ -16,12 +16,8 @@ export const GET: APIRoute = async (context) => {
 
 /** Deletes the photo, its regions and swatches, and its files in storage (the coupon's owner or an admin). */
 export const DELETE: APIRoute = async (context) => {
-  const user = await requireCurrentUser(context);
-  if (isResponse(user)) return user;
-  const found = await photoFromRoute(context.params);
+  const found = await photoToChange(context);
   if (isResponse(found)) return found;
-  const denied = checkAccess(user, found.coupon, 'change', 'That photo');
-  if (denied) return denied;
   if (!(await deletePhoto(found.photo))) return problem(404, 'That photo was not found.');
   return new Response(null, { status: 204 });
 };

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { checkRegions, regionsRequestSchema } from '../../../../lib/photo-requests';
-import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
-import { photoFromRoute } from '../../../../lib/server/coupons';
+import { isResponse } from '../../../../lib/server/authorise';
+import { photoToChange } from '../../../../lib/server/coupons';
 import { json, parseJson, problem } from '../../../../lib/server/http';
 import { layerIdsOf } from '../../../../lib/server/photos/records';
 import { reanalysePhoto } from '../../../../lib/server/photos/remeasure';
@@ -10,12 +10,8 @@ import { refusalResponse } from '../../../../lib/server/refusal';
 
 /** Replaces the photo's regions and measures it again; answers the photo with its new swatches. */
 export const PUT: APIRoute = async (context) => {
-  const user = await requireCurrentUser(context);
-  if (isResponse(user)) return user;
-  const found = await photoFromRoute(context.params);
+  const found = await photoToChange(context);
   if (isResponse(found)) return found;
-  const denied = checkAccess(user, found.coupon, 'change', 'That photo');
-  if (denied) return denied;
   const input = await parseJson(context.request, regionsRequestSchema);
   if (!input.ok) return input.response;
   const layerIds = await layerIdsOf(found.coupon.id);
