@@ -3,7 +3,7 @@ import { alloys, couponLayers, coupons, photos, swatches, users } from '../../..
 import { layerKeyOf } from '../alloys';
 import type { APIContext } from 'astro';
 import type { Coupon, Visibility } from '../coupons';
-import { checkAccess, isResponse, requireRole } from './authorise';
+import { checkAccess, isResponse, requireCurrentUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
 import { routeId } from './route-params';
@@ -85,7 +85,7 @@ export const photoFromRoute = (params: RouteParams): Promise<PhotoWithCoupon | R
 
 /** The photo a route's `[id]` names, for a member (as the database has them now) who may change it; or the refusal. */
 export async function photoToChange(context: Pick<APIContext, 'locals' | 'params'>): Promise<PhotoWithCoupon | Response> {
-  const user = await requireRole(context, 'member');
+  const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
   const found = await photoFromRoute(context.params);
   if (isResponse(found)) return found;
