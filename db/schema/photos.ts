@@ -117,5 +117,7 @@ export const swatches = mysqlTable(
     index('swatches_region_idx').on(table.regionId),
     index('swatches_coupon_idx').on(table.couponId),
     index('swatches_alloy_colour_idx').on(table.alloyId, table.labL, table.labA, table.labB),
+    // Colour search with no alloy: a range on L* with a*, b* checked from the index.
+    index('swatches_colour_idx').on(table.labL, table.labA, table.labB),
   ],
 );

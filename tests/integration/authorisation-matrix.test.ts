@@ -80,6 +80,17 @@ export const matrix: Row[] = [
   // The owner's and an admin's deletes really delete: tests/integration/photos.test.ts covers them.
   { route: 'delete a photo of a private coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.private}`, expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null } },
   { route: 'delete a photo of a members coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.members}`, expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null } },
+
+  // the library (lists only what each caller may see: tests/integration/library.test.ts)
+  { route: 'browse the library, filtered and sorted', method: 'GET', path: '/api/coupons?pair=ti-grade-2%2Bti-grade-5&sort=temperature&unit=F&tempMin=400', expect: all(200) },
+  { route: 'browse the library, bad filter', method: 'GET', path: '/api/coupons?alloy=unobtainium', expect: all(400) },
+  { route: 'browse the library, forged cursor', method: 'GET', path: '/api/coupons?cursor=eyJpZCI6MX0', expect: all(400) },
+  { route: 'browse my part of the library', method: 'GET', path: '/api/coupons?mine=1&photos=1', expect: signedInOnly(200) },
+  // colour search (hits only from visible coupons: tests/integration/library-colour-search.test.ts)
+  { route: 'search swatches by colour', method: 'GET', path: '/api/swatches/search?hex=%23c08040&alloy=ti-grade-2&maxDeltaE=10', expect: all(200) },
+  { route: 'export the library view', method: 'GET', path: '/api/library/export?format=csv&alloy=ti-grade-2', expect: all(200) },
+  { route: 'export my part of the library', method: 'GET', path: '/api/library/export?format=json&mine=1', expect: signedInOnly(200) },
+  { route: 'search swatches, bad hex', method: 'GET', path: '/api/swatches/search?hex=orange', expect: all(400) },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -144,6 +155,8 @@ describe('no page answers 500 to a stranger', () => {
     '/sign-up', '/forgot-password', '/reset-password', '/reset-password?token=abc', '/confirm-email', '/confirm-email?token=%00%ff',
     '/account', '/admin/users', '/coupons', '/coupons/new', '/coupons/abc', '/coupons/0', '/coupons/99999999', '/coupons/1/edit',
     '/tint-ladder', '/tint-ladder?alloy=unobtainium&light=x', '/heat-planner',
+    '/library', '/library?view=grid&sort=hold&order=asc', '/library?cursor=%00&alloy=x&tempMin=hot&limit=-1&mine=1', '/library?pair=a%2Bb%2Bc&unit=K',
+    '/library/search', '/library/search?hex=%23c08040&maxDeltaE=3', '/library/search?hex=%00&alloy=x&maxDeltaE=-1&limit=x',
   ];
   it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
     const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });

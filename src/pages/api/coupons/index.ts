@@ -1,24 +1,33 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
 import { couponInputSchema } from '../../../lib/coupons';
 import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { couponView, createCoupon, findCoupon, listCoupons } from '../../../lib/server/coupons';
-import { json, parseJson, parseValue } from '../../../lib/server/http';
+import { couponView, createCoupon, findCoupon } from '../../../lib/server/coupons';
+import { libraryQuerySchema } from '../../../lib/library/query';
+import { BadCursor, listLibrary } from '../../../lib/server/library/list';
+import { json, parseJson, parseValue, problem } from '../../../lib/server/http';
 
-const listQuery = z.object({
-  mine: z.enum(['1', 'true']).optional(),
-  limit: z.coerce.number().int().min(1).max(100).default(25),
-  offset: z.coerce.number().int().min(0).max(1_000_000).default(0),
-});
-
-/** Coupons the caller may see (visitors: public ones), newest first; `?mine=1` for one's own. */
+/**
+ * Coupons the caller may see (visitors: public ones), filtered, sorted and paged as the library's
+ * query says (src/lib/library/query.ts): `?mine=1` for one's own, `cursor` from `nextCursor`.
+ */
 export const GET: APIRoute = async (context) => {
-  const query = parseValue(Object.fromEntries(context.url.searchParams), listQuery);
+  const query = parseValue(Object.fromEntries(context.url.searchParams), libraryQuerySchema);
   if (!query.ok) return query.response;
   const viewer = context.locals.user;
-  if (query.data.mine && !viewer) return json({ error: 'Sign in to see your own coupons.' }, 401);
-  const page = await listCoupons(viewer, { ownerId: query.data.mine ? viewer!.id : undefined, limit: query.data.limit, offset: query.data.offset });
-  return json({ coupons: page.coupons.map((coupon) => couponView(coupon, viewer)), total: page.total, limit: query.data.limit, offset: query.data.offset });
+  if (query.data.mineOnly && !viewer) return json({ error: 'Sign in to see your own coupons.' }, 401);
+  try {
+    const page = await listLibrary(viewer, query.data);
+    return json({
+      coupons: page.coupons.map((coupon) => ({ ...couponView(coupon, viewer), dominantSwatches: coupon.dominantSwatches })),
+      total: page.total,
+      limit: query.data.limit,
+      offset: query.data.offset,
+      nextCursor: page.nextCursor,
+    });
+  } catch (error) {
+    if (error instanceof BadCursor) return problem(400, `cursor: ${error.message}`, 'cursor');
+    throw error;
+  }
 };
 
 export const POST: APIRoute = async (context) => {

@@ -1,0 +1,1 @@
+CREATE INDEX `swatches_colour_idx` ON `swatches` (`lab_l`,`lab_a`,`lab_b`);
