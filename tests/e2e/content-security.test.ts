@@ -51,8 +51,8 @@ describe('the Content-Security-Policy in Chromium', () => {
 
     // The heat planner's islands hydrate and answer from the API (connect-src 'self').
     await visit(page, '/heat-planner', true);
-    await page.getByRole('button', { name: 'Predict the tint' }).click();
-    await page.waitForResponse((response) => response.url().endsWith('/api/tint/predict'));
+    // Listen before clicking: a quick answer could otherwise arrive before the listener.
+    await Promise.all([page.waitForResponse((response) => response.url().endsWith('/api/tint/predict')), page.getByRole('button', { name: 'Predict the tint' }).click()]);
     await page.waitForLoadState('networkidle');
 
     expect(violations).toEqual([]);
