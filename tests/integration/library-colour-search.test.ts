@@ -6,8 +6,8 @@ import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 import { seededRandom } from '../../src/lib/random';
-// ΔE00 as checked against Sharma, Wu & Dalal (2005) Table 1 in tests/unit/tint/delta-e.test.ts.
-import { deltaE2000 } from '../../src/lib/tint/delta-e';
+// ΔE00 as checked against Sharma, Wu & Dalal (2005) Table 1 in tests/unit/colour/delta-e.test.ts.
+import { deltaE2000 } from '../../src/lib/colour';
 
 /**
  * GET /api/swatches/search against a brute-force ΔE00 scan written here over the same rows (every

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { alloySlugs } from '../alloys';
-import { hexToLab, isHexColour } from '../tint/colour';
+import { hexToLab, isHexColour } from '../colour';
 import { MAX_BOXED_DELTA_E } from './colour-box';
 
 /** The largest ΔE00 colour search accepts: well inside the range its index box is derived for. */

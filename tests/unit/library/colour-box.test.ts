@@ -4,7 +4,7 @@ import { deltaE00Box, insideBox, MAX_BOXED_DELTA_E } from '../../../src/lib/libr
 import { seededRandom } from '../../../src/lib/random';
 
 // An independent CIEDE2000: culori's (kL = kC = kH = 1), itself checked against Sharma, Wu &
-// Dalal (2005) Table 1 beside our own in tests/unit/tint/delta-e.test.ts.
+// Dalal (2005) Table 1 beside our own in tests/unit/colour/delta-e.test.ts.
 const ciede2000 = differenceCiede2000();
 const lab = (l: number, a: number, b: number) => ({ mode: 'lab65' as const, l, a, b });
 const dE = (p: { l: number; a: number; b: number }, q: { l: number; a: number; b: number }) => ciede2000(lab(p.l, p.a, p.b), lab(q.l, q.a, q.b));

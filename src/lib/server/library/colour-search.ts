@@ -2,9 +2,9 @@ import { and, between, eq, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
 import { deltaE00Box } from '../../library/colour-box';
 import type { ColourSearch } from '../../library/colour-search';
-import { deltaE2000 } from '../../tint/delta-e';
+import { deltaE2000 } from '../../colour';
 import type { SessionUser } from '../authorise';
-import { visibleTo } from '../coupons';
+import { visibleCoupons } from '../visibility';
 import { db } from '../db';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
@@ -61,7 +61,7 @@ export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promi
     .leftJoin(alloys, eq(alloys.id, swatches.alloyId))
     .where(
       and(
-        visibleTo(viewer),
+        visibleCoupons(viewer),
         eq(swatches.isMean, false),
         query.alloy ? sql`${swatches.alloyId} = (select ${alloys.id} from ${alloys} where ${alloys.slug} = ${query.alloy})` : undefined,
         between(swatches.labL, box.l[0], box.l[1]),

@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, gte, inArray, isNull, lte, or, sql, type SQL
 import { alloys, couponLayers, coupons, photos, swatches } from '../../../../db/schema';
 import { decodeCursor, encodeCursor, type LibraryCursor, type LibraryQuery } from '../../library/query';
 import type { SessionUser } from '../authorise';
-import { visibleTo } from '../coupons';
+import { visibleCoupons } from '../visibility';
 import { db } from '../db';
 import { listCouponRows, type CouponRecord } from './coupon-rows';
 
@@ -31,7 +31,7 @@ const sortColumn = { date: coupons.createdAt, temperature: coupons.temperatureC,
 /** The filters of a library query, as SQL, with the viewer's visibility rule. */
 export function libraryWhere(viewer: Viewer, query: LibraryQuery, alloyId?: number): SQL | undefined {
   return and(
-    visibleTo(viewer),
+    visibleCoupons(viewer),
     query.mineOnly && viewer ? eq(coupons.ownerId, viewer.id) : undefined,
     alloyId !== undefined ? sql`exists (select 1 from ${couponLayers} where ${couponLayers.couponId} = ${coupons.id} and ${couponLayers.alloyId} = ${alloyId})` : undefined,
     query.pairKey ? eq(coupons.layerKey, query.pairKey) : undefined,
