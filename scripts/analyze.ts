@@ -4,7 +4,7 @@
 // with no region, the whole photo. Exit code 2 for bad arguments or a photo that cannot be used.
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { AnalysisInputError, AnalysisOptionsSchema, type AnalysisOptions, type Region } from '../src/lib/analysis';
+import { AnalysisInputError, AnalysisOptionsSchema, type AnalysisOptions, type Region } from '~/lib/analysis';
 
 const USAGE = 'usage: npm run analyze -- <image> [--region x,y,w,h]... [--grey x,y,w,h] [--k N] [--adaptation rgb-von-kries|bradford]';
 
@@ -72,8 +72,8 @@ async function main(): Promise<number> {
     console.error(`analyze: cannot read ${file}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
     return 2;
   }
-  const { ImageRejected } = await import('../src/lib/server/photos/decode');
-  const { analysePhoto } = await import('../src/lib/server/photos/measure');
+  const { ImageRejected } = await import('~/lib/server/photos/decode');
+  const { analysePhoto } = await import('~/lib/server/photos/measure');
   try {
     const analysis = await analysePhoto(buffer, options);
     process.stdout.write(`${JSON.stringify({ file, ...analysis }, null, 2)}\n`);

@@ -15,11 +15,10 @@ const files = readdirSync(dir)
 let failed = 0;
 for (const file of files) {
   console.log(`\n## ${file.replace('.bench.ts', '')}`);
-  const run = spawnSync(
-    process.execPath,
-    ['--expose-gc', path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs'), path.join(dir, file)],
-    { stdio: 'inherit', cwd: root },
-  );
+  const run = spawnSync(process.execPath, ['--expose-gc', path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs'), path.join(dir, file)], {
+    stdio: 'inherit',
+    cwd: root,
+  });
   if (run.status !== 0) failed += 1;
 }
 process.exit(failed ? 1 : 0);

@@ -23,7 +23,10 @@ function readCsv(name) {
   const rows = new Map();
   for (const line of read(name).trim().split('\n').slice(1)) {
     const [nm, ...values] = line.split(',');
-    rows.set(Number(nm), values.map((value) => String(Number(value))));
+    rows.set(
+      Number(nm),
+      values.map((value) => String(Number(value))),
+    );
   }
   return rows;
 }

@@ -2,7 +2,7 @@
 // DATABASE_URL. On failure it prints one line naming the fault and exits 1.
 import { migrate } from 'drizzle-orm/mysql2/migrator';
 import { createDatabase } from '../db/client';
-import { readConfig } from '../src/lib/server/config';
+import { readConfig } from '~/lib/server/config';
 
 // Every app setting is checked here, before anything starts, so a bad one stops start-up with one line.
 let url: string;

@@ -21,7 +21,15 @@ mkdirSync(out, { recursive: true });
 const context = await chromium.launchPersistentContext(mkdtempSync(path.join(tmpdir(), 'oxbloom-shot-')), {
   executablePath: '/usr/bin/chromium',
   headless: true,
-  args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-quic',
+    '--no-first-run',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+  ],
 });
 const page = await context.newPage();
 for (const url of args) {

@@ -64,6 +64,6 @@ async function main() {
 }
 
 main().catch((error) => {
-  console.error(`[oxbloom] ${error instanceof SetupError ? error.message : error.stack ?? error}`);
+  console.error(`[oxbloom] ${error instanceof SetupError ? error.message : (error.stack ?? error)}`);
   process.exit(1);
 });

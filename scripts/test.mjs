@@ -21,10 +21,26 @@ function summarise(reportFile) {
   console.log(`\ntests: ${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped`);
 }
 
-function typeCheck() {
-  step('type-checking (astro check)');
-  const check = spawnSync(process.execPath, [path.join(root, 'node_modules', 'astro', 'astro.js'), 'check', '--minimumSeverity', 'warning'], { stdio: 'inherit', cwd: root, env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' } });
-  if (check.status !== 0) throw new SetupError('astro check found problems; see above.');
+function runChecker(what, script, args, failure) {
+  step(what);
+  const check = spawnSync(process.execPath, [path.join(root, 'node_modules', ...script), ...args], {
+    stdio: 'inherit',
+    cwd: root,
+    env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' },
+  });
+  if (check.status !== 0) throw new SetupError(failure);
+}
+
+/** The formatter, the linter and the type checker, before any service starts. */
+function staticChecks() {
+  runChecker(
+    'checking the format (prettier --check)',
+    ['prettier', 'bin', 'prettier.cjs'],
+    ['--check', '--log-level', 'warn', '.'],
+    'Some files are not formatted: run `npm run format`.',
+  );
+  runChecker('linting (eslint)', ['eslint', 'bin', 'eslint.js'], ['--max-warnings', '0', '.'], 'eslint found problems; see above (`npm run lint`).');
+  runChecker('type-checking (astro check)', ['astro', 'astro.js'], ['check', '--minimumSeverity', 'warning'], 'astro check found problems; see above.');
 }
 
 async function main() {
@@ -49,8 +65,8 @@ async function main() {
 
   let status = 1;
   try {
-    if (process.env.OXBLOOM_TEST_SKIP_CHECK === '1') step('skipping astro check (OXBLOOM_TEST_SKIP_CHECK=1)');
-    else typeCheck();
+    if (process.env.OXBLOOM_TEST_SKIP_CHECK === '1') step('skipping the format, lint and type checks (OXBLOOM_TEST_SKIP_CHECK=1)');
+    else staticChecks();
 
     step('starting MariaDB, the S3 fake and the mail fake');
     await startServices(profile, { freshDatabase: true });
@@ -68,7 +84,16 @@ async function main() {
     rmSync(reportFile, { force: true });
     const vitest = spawnSync(
       process.execPath,
-      [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--config', 'tests/vitest.config.ts', '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...vitestArgs],
+      [
+        path.join(root, 'node_modules', 'vitest', 'vitest.mjs'),
+        'run',
+        '--config',
+        'tests/vitest.config.ts',
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${reportFile}`,
+        ...vitestArgs,
+      ],
       { stdio: 'inherit', cwd: root, env: { ...process.env, ...env, OXBLOOM_TEST_BASE_URL: profile.appUrl, OXBLOOM_TEST_APP_LOG: logFile(profile, 'app') } },
     );
     status = vitest.status ?? 1;
@@ -84,6 +109,6 @@ async function main() {
 main()
   .then((status) => process.exit(status))
   .catch((error) => {
-    console.error(`[test] ${error instanceof SetupError ? error.message : error.stack ?? error}`);
+    console.error(`[test] ${error instanceof SetupError ? error.message : (error.stack ?? error)}`);
     process.exit(1);
   });

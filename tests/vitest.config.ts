@@ -9,6 +9,8 @@ const root = fileURLToPath(new URL('..', import.meta.url));
  */
 export default defineConfig({
   root,
+  // The `~/` import alias of tsconfig.json (src/), which Astro's own build reads from there.
+  resolve: { alias: { '~': `${root}src` } },
   test: {
     include: ['tests/**/*.test.ts'],
     pool: 'forks',

@@ -1,16 +1,4 @@
-import {
-  char,
-  index,
-  int,
-  mysqlEnum,
-  mysqlTable,
-  primaryKey,
-  smallint,
-  text,
-  timestamp,
-  uniqueIndex,
-  varchar,
-} from 'drizzle-orm/mysql-core';
+import { char, index, int, mysqlEnum, mysqlTable, primaryKey, smallint, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 import { users } from './users';
 import { coupons } from './coupons';

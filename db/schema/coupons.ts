@@ -1,14 +1,4 @@
-import {
-  double,
-  index,
-  int,
-  mysqlEnum,
-  mysqlTable,
-  smallint,
-  text,
-  uniqueIndex,
-  varchar,
-} from 'drizzle-orm/mysql-core';
+import { double, index, int, mysqlEnum, mysqlTable, smallint, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 import { users } from './users';
 import { alloys } from './alloys';
@@ -67,8 +57,5 @@ export const couponLayers = mysqlTable(
       .notNull()
       .references(() => alloys.id, { onDelete: 'restrict' }),
   },
-  (table) => [
-    uniqueIndex('coupon_layers_position_idx').on(table.couponId, table.position),
-    index('coupon_layers_alloy_idx').on(table.alloyId),
-  ],
+  (table) => [uniqueIndex('coupon_layers_position_idx').on(table.couponId, table.position), index('coupon_layers_alloy_idx').on(table.alloyId)],
 );

@@ -1,16 +1,4 @@
-import {
-  bigint,
-  boolean,
-  char,
-  double,
-  index,
-  int,
-  mysqlEnum,
-  mysqlTable,
-  smallint,
-  timestamp,
-  varchar,
-} from 'drizzle-orm/mysql-core';
+import { bigint, boolean, char, double, index, int, mysqlEnum, mysqlTable, smallint, timestamp, varchar } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 import { users } from './users';
 import { alloys } from './alloys';

@@ -1,14 +1,4 @@
-import {
-  int,
-  mysqlEnum,
-  mysqlTable,
-  primaryKey,
-  timestamp,
-  varchar,
-  char,
-  index,
-  uniqueIndex,
-} from 'drizzle-orm/mysql-core';
+import { int, mysqlEnum, mysqlTable, primaryKey, timestamp, varchar, char, index, uniqueIndex } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 
 export const roles = ['member', 'instructor', 'admin'] as const;

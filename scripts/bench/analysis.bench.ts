@@ -12,9 +12,9 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import sharp from 'sharp';
 import { converter, differenceCiede2000 } from 'culori';
-import { ANALYSIS_LONG_SIDE } from '../../src/lib/server/photos/decode';
-import { analysePhoto } from '../../src/lib/server/photos/measure';
-import type { Region } from '../../src/lib/analysis';
+import { ANALYSIS_LONG_SIDE } from '~/lib/server/photos/decode';
+import { analysePhoto } from '~/lib/server/photos/measure';
+import type { Region } from '~/lib/analysis';
 import { couponScene, encodeJpeg, illuminantACast, illuminantD50Cast, renderScene, TINTS } from '../../tests/fixtures/synthetic-photos';
 import { ms, printTable, time, type Timing } from './report';
 
@@ -52,11 +52,11 @@ async function runChild(which: Case, job: Job): Promise<void> {
 }
 
 function measure(which: Case, job: Job): ChildReport {
-  const run = spawnSync(
-    process.execPath,
-    ['--expose-gc', path.join(root, 'node_modules/tsx/dist/cli.mjs'), self, '--child', which, JSON.stringify(job)],
-    { cwd: root, encoding: 'utf8', maxBuffer: 1 << 20 },
-  );
+  const run = spawnSync(process.execPath, ['--expose-gc', path.join(root, 'node_modules/tsx/dist/cli.mjs'), self, '--child', which, JSON.stringify(job)], {
+    cwd: root,
+    encoding: 'utf8',
+    maxBuffer: 1 << 20,
+  });
   if (run.status !== 0) throw new Error(`${which} failed: ${run.stderr}`);
   return JSON.parse(run.stdout) as ChildReport;
 }
@@ -75,7 +75,15 @@ interface Coupon {
 }
 
 /** Writes a synthetic coupon photo (two layers, grey card, noise, optional cast) as a JPEG. */
-async function writeCoupon(dir: string, name: string, width: number, height: number, layers: [string, string], cast?: [number, number, number], sigma = 6): Promise<Coupon> {
+async function writeCoupon(
+  dir: string,
+  name: string,
+  width: number,
+  height: number,
+  layers: [string, string],
+  cast?: [number, number, number],
+  sigma = 6,
+): Promise<Coupon> {
   const coupon = couponScene(width, height, layers, { cast, noise: { sigma, seed: name.length * 7919 + width } });
   const file = path.join(dir, `${name}.jpg`);
   writeFileSync(file, await encodeJpeg(renderScene(coupon.scene), 90));
@@ -143,9 +151,16 @@ async function main() {
     const mb = (value: number) => `${value.toFixed(0)} MB`;
     const ourMedian = median(accuracy.ours);
     const ourWorst = Math.max(...accuracy.ours);
-    console.log(`24 MP JPEG: 6000×4000, ${(readFileSync(large.file).length / 1e6).toFixed(1)} MB; accuracy over ${coupons.length} coupons, ${layerCount} layers (daylight, D50 and illuminant A casts, noise σ 4–12).`);
+    console.log(
+      `24 MP JPEG: 6000×4000, ${(readFileSync(large.file).length / 1e6).toFixed(1)} MB; accuracy over ${coupons.length} coupons, ${layerCount} layers (daylight, D50 and illuminant A casts, noise σ 4–12).`,
+    );
     printTable([
-      { what: 'analyse 24 MP JPEG, decode → swatches (median)', measured: ms(analysis.timing.median), target: `≤ ${TARGET.medianMs} ms`, met: analysis.timing.median <= TARGET.medianMs },
+      {
+        what: 'analyse 24 MP JPEG, decode → swatches (median)',
+        measured: ms(analysis.timing.median),
+        target: `≤ ${TARGET.medianMs} ms`,
+        met: analysis.timing.median <= TARGET.medianMs,
+      },
       { what: 'analyse 24 MP JPEG (p95)', measured: ms(analysis.timing.p95) },
       { what: 'analyse: peak RSS of its process', measured: mb(analysis.peakMb), target: `≤ ${TARGET.peakMb} MB`, met: analysis.peakMb <= TARGET.peakMb },
       { what: 'floor: sharp decode + shrink-on-load to 1024 px (median)', measured: ms(floor.timing.median) },
@@ -156,11 +171,19 @@ async function main() {
       { what: 'node-vibrant 4.0.4 getPalette, same file (median)', measured: ms(vibrant.timing.median) },
       { what: 'node-vibrant: peak RSS', measured: mb(vibrant.peakMb) },
       { what: 'node-vibrant time ÷ analysis time', measured: `${(vibrant.timing.median / analysis.timing.median).toFixed(1)}×` },
-      { what: `accuracy ΔE00 median (dominant swatch, ${layerCount} layers)`, measured: ourMedian.toFixed(2), target: `≤ ${TARGET.medianDeltaE}`, met: ourMedian <= TARGET.medianDeltaE },
+      {
+        what: `accuracy ΔE00 median (dominant swatch, ${layerCount} layers)`,
+        measured: ourMedian.toFixed(2),
+        target: `≤ ${TARGET.medianDeltaE}`,
+        met: ourMedian <= TARGET.medianDeltaE,
+      },
       { what: 'accuracy ΔE00 worst', measured: ourWorst.toFixed(2), target: `≤ ${TARGET.worstDeltaE}`, met: ourWorst <= TARGET.worstDeltaE },
       { what: 'node-vibrant ΔE00 median (closest of its swatches)', measured: median(accuracy.theirs).toFixed(2) },
       { what: 'node-vibrant ΔE00 worst', measured: Math.max(...accuracy.theirs).toFixed(2) },
-      { what: 'node-vibrant ΔE00 median / worst, daylight coupons only', measured: `${median(accuracy.theirsInDaylight).toFixed(2)} / ${Math.max(...accuracy.theirsInDaylight).toFixed(2)}` },
+      {
+        what: 'node-vibrant ΔE00 median / worst, daylight coupons only',
+        measured: `${median(accuracy.theirsInDaylight).toFixed(2)} / ${Math.max(...accuracy.theirsInDaylight).toFixed(2)}`,
+      },
     ]);
   } finally {
     rmSync(dir, { recursive: true, force: true });

@@ -10,7 +10,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ms, printTable, summarise, time, type Row, type Timing } from './report';
 
-const loadAverage = () => (os.loadavg()[0]).toFixed(1);
+const loadAverage = () => os.loadavg()[0].toFixed(1);
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const RATE_PER_SECOND = 100;
 const DURATION_SECONDS = 10;
@@ -82,8 +82,8 @@ async function main() {
   const { demo, signedIn } = await import('../../tests/support/auth');
   const { createDatabase } = await import('../../db/client');
   const { insertSyntheticCoupon } = await import('../../tests/fixtures/library-coupons');
-  const { heatThicknessNm } = await import('../../src/lib/tint/growth');
-  const { findTintModel, predictTint } = await import('../../src/lib/tint');
+  const { heatThicknessNm } = await import('~/lib/tint/growth');
+  const { findTintModel, predictTint } = await import('~/lib/tint');
 
   // The library: swatched Ti-6Al-4V heats in air, shared with members.
   const { db, pool } = createDatabase(env.DATABASE_URL, 4);
@@ -91,7 +91,7 @@ async function main() {
   for (let i = 0; i < LIBRARY_COUPONS; i += 1) {
     const temperatureC = 450 + ((i * 37) % 200);
     const holdMinutes = 5 + ((i * 53) % 115);
-    const thicknessNm = heatThicknessNm(law, temperatureC, holdMinutes) * (0.9 + 0.2 * ((i * 7) % 10) / 10);
+    const thicknessNm = heatThicknessNm(law, temperatureC, holdMinutes) * (0.9 + (0.2 * ((i * 7) % 10)) / 10);
     await insertSyntheticCoupon(db, { ownerEmail: demo.member2, alloy: ALLOY, visibility: 'members', temperatureC, holdMinutes, thicknessNm });
   }
 
@@ -99,7 +99,8 @@ async function main() {
   const plan = (i: number) => ({ alloy: ALLOY, process: 'heat', temperatureC: 480 + (i % 150), holdMinutes: 10 + (i % 100) });
   const first = await (await api('/api/tint/predict', { jar: member, json: plan(0) })).json();
   // The demo's own measured photos may add a few coupons of the alloy.
-  if (first.basis !== 'library' || first.couponCount < LIBRARY_COUPONS) throw new Error(`Expected the library fit of ${LIBRARY_COUPONS}+ coupons, got ${first.basis} ${first.couponCount}`);
+  if (first.basis !== 'library' || first.couponCount < LIBRARY_COUPONS)
+    throw new Error(`Expected the library fit of ${LIBRARY_COUPONS}+ coupons, got ${first.basis} ${first.couponCount}`);
 
   const request = (jar?: typeof member) => async (i: number) => {
     const response = await api('/api/tint/predict', { jar, json: plan(i) });
@@ -118,7 +119,7 @@ async function main() {
   });
 
   // The handler path in this process: the version query, the cached fit, the prediction, the JSON.
-  const { libraryFit, libraryVersion } = await import('../../src/lib/server/tint-fit');
+  const { libraryFit, libraryVersion } = await import('~/lib/server/tint-fit');
   const viewer = { id: 'bench-viewer', role: 'member' as const };
   const model = findTintModel(ALLOY)!;
   await libraryFit(ALLOY, viewer);
@@ -142,17 +143,28 @@ async function main() {
 
   const perSecond = `${RATE_PER_SECOND}/s for ${DURATION_SECONDS} s`;
   const rows: Row[] = [
-    { what: `member, library fit of ${first.couponCount} coupons, ${perSecond} (p95)`, measured: ms(library.timing.p95), target: '≤ 25 ms', met: library.timing.p95 <= 25 && library.failures === 0 },
+    {
+      what: `member, library fit of ${first.couponCount} coupons, ${perSecond} (p95)`,
+      measured: ms(library.timing.p95),
+      target: '≤ 25 ms',
+      met: library.timing.p95 <= 25 && library.failures === 0,
+    },
     { what: '  same, median / max', measured: `${ms(library.timing.median)} / ${ms(library.timing.max)}` },
     { what: '  same, failed requests', measured: String(library.failures) },
-    { what: `visitor, reference data, ${perSecond} (p95)`, measured: ms(visitor.timing.p95), target: '≤ 25 ms', met: visitor.timing.p95 <= 25 && visitor.failures === 0 },
+    {
+      what: `visitor, reference data, ${perSecond} (p95)`,
+      measured: ms(visitor.timing.p95),
+      target: '≤ 25 ms',
+      met: visitor.timing.p95 <= 25 && visitor.failures === 0,
+    },
     { what: '  same, median', measured: ms(visitor.timing.median) },
     { what: `member, one-step tint ladder (session read only), ${perSecond} (p95)`, measured: ms(sessionOnly.timing.p95) },
     { what: '  same, median', measured: ms(sessionOnly.timing.median) },
     { what: 'in process: version query + cached fit + prediction + JSON (p95)', measured: ms(inProcess.p95) },
     { what: 'in process: the version query alone (median)', measured: ms(versionOnly.median) },
   ];
-  for (const { swatches, timing } of versionAt) rows.push({ what: `  the version query with ${swatches} swatches of the alloy (median)`, measured: ms(timing.median) });
+  for (const { swatches, timing } of versionAt)
+    rows.push({ what: `  the version query with ${swatches} swatches of the alloy (median)`, measured: ms(timing.median) });
   rows.push({ what: `machine load average (1 min) at the end, ${os.cpus().length} cores`, measured: loadAverage() });
   printTable(rows);
   if (rows.some((row) => row.met === false)) process.exitCode = 1;

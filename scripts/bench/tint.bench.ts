@@ -1,12 +1,12 @@
 // Tint science figures (BRIEF.md "Figures it must reach" and issue 5): the ladder, a prediction
 // with a cached fit, fitting 10 000 coupons, and one pair-planner search.
-import { fitGrowth, type CouponObservation } from '../../src/lib/tint/fit';
-import { heatThicknessNm } from '../../src/lib/tint/growth';
-import { buildLadder, colourAt } from '../../src/lib/tint/ladder';
-import { findTintModel } from '../../src/lib/tint/models';
-import { planPair } from '../../src/lib/tint/plan-pair';
-import { predictTint } from '../../src/lib/tint/predict';
-import { seededRandom } from '../../src/lib/random';
+import { fitGrowth, type CouponObservation } from '~/lib/tint/fit';
+import { heatThicknessNm } from '~/lib/tint/growth';
+import { buildLadder, colourAt } from '~/lib/tint/ladder';
+import { findTintModel } from '~/lib/tint/models';
+import { planPair } from '~/lib/tint/plan-pair';
+import { predictTint } from '~/lib/tint/predict';
+import { seededRandom } from '~/lib/random';
 import { ms, printTable, time, type Row } from './report';
 
 const titanium = findTintModel('ti-grade-5')!;

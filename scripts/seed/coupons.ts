@@ -1,5 +1,5 @@
 import type { coupons } from '../../db/schema';
-import { findAlloy } from '../../src/lib/alloys';
+import { findAlloy } from '~/lib/alloys';
 import { seededChoices } from './random';
 
 type NewCoupon = Omit<typeof coupons.$inferInsert, 'ownerId' | 'layerKey'>;
@@ -22,12 +22,59 @@ interface Recipe {
 
 /** Invented but plausible heats per family, so the demo library has something to browse. */
 const recipes: Recipe[] = [
-  { label: 'Ti heat tint', layers: [['ti-grade-2'], ['ti-grade-5'], ['ti-grade-2', 'ti-grade-5'], ['ti-grade-9', 'ti-grade-2']], process: ['oven', 'torch'], temperatureC: [420, 760], holdMinutes: [5, 90], atmospheres: ['air'] },
-  { label: 'Ti laminate', layers: [['ti-grade-2', 'ti-grade-5'], ['ti-grade-1', 'ti-grade-5'], ['ti-grade-2', 'ti-grade-23']], process: ['forge'], temperatureC: [930, 1010], holdMinutes: [10, 45], atmospheres: ['argon'] },
-  { label: 'Ti anodized', layers: [['ti-grade-2'], ['ti-grade-5'], ['niobium']], process: ['anodize'], temperatureC: [0, 0], holdMinutes: [0, 0], volts: [10, 95], atmospheres: ['other'] },
-  { label: 'Temper colour', layers: [['steel-1084'], ['steel-1095'], ['steel-o1'], ['steel-w2'], ['steel-52100'], ['steel-1084', 'steel-15n20']], process: ['oven', 'torch'], temperatureC: [200, 340], holdMinutes: [5, 60], atmospheres: ['air'] },
-  { label: 'Stainless heat tint', layers: [['steel-304'], ['steel-316'], ['steel-416']], process: ['torch', 'oven'], temperatureC: [300, 800], holdMinutes: [2, 30], atmospheres: ['air', 'argon'] },
-  { label: 'Copper alloy colour', layers: [['copper-c11000'], ['bronze-c51000'], ['brass-c26000']], process: ['torch', 'oven'], temperatureC: [150, 420], holdMinutes: [1, 30], atmospheres: ['air'] },
+  {
+    label: 'Ti heat tint',
+    layers: [['ti-grade-2'], ['ti-grade-5'], ['ti-grade-2', 'ti-grade-5'], ['ti-grade-9', 'ti-grade-2']],
+    process: ['oven', 'torch'],
+    temperatureC: [420, 760],
+    holdMinutes: [5, 90],
+    atmospheres: ['air'],
+  },
+  {
+    label: 'Ti laminate',
+    layers: [
+      ['ti-grade-2', 'ti-grade-5'],
+      ['ti-grade-1', 'ti-grade-5'],
+      ['ti-grade-2', 'ti-grade-23'],
+    ],
+    process: ['forge'],
+    temperatureC: [930, 1010],
+    holdMinutes: [10, 45],
+    atmospheres: ['argon'],
+  },
+  {
+    label: 'Ti anodized',
+    layers: [['ti-grade-2'], ['ti-grade-5'], ['niobium']],
+    process: ['anodize'],
+    temperatureC: [0, 0],
+    holdMinutes: [0, 0],
+    volts: [10, 95],
+    atmospheres: ['other'],
+  },
+  {
+    label: 'Temper colour',
+    layers: [['steel-1084'], ['steel-1095'], ['steel-o1'], ['steel-w2'], ['steel-52100'], ['steel-1084', 'steel-15n20']],
+    process: ['oven', 'torch'],
+    temperatureC: [200, 340],
+    holdMinutes: [5, 60],
+    atmospheres: ['air'],
+  },
+  {
+    label: 'Stainless heat tint',
+    layers: [['steel-304'], ['steel-316'], ['steel-416']],
+    process: ['torch', 'oven'],
+    temperatureC: [300, 800],
+    holdMinutes: [2, 30],
+    atmospheres: ['air', 'argon'],
+  },
+  {
+    label: 'Copper alloy colour',
+    layers: [['copper-c11000'], ['bronze-c51000'], ['brass-c26000']],
+    process: ['torch', 'oven'],
+    temperatureC: [150, 420],
+    holdMinutes: [1, 30],
+    atmospheres: ['air'],
+  },
   { label: 'Zirconium tint', layers: [['zirconium-702']], process: ['oven'], temperatureC: [400, 700], holdMinutes: [10, 60], atmospheres: ['air'] },
 ];
 

@@ -4,13 +4,13 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { alloys, couponLayers, coupons, photos } from '../../db/schema';
-import type { RegionInput } from '../../src/lib/photos';
-import { developPhoto } from '../../src/lib/server/photos/attach';
-import { newUploadKey } from '../../src/lib/server/photos/keys';
-import { photoTransaction, recordPhoto } from '../../src/lib/server/photos/records';
-import { storeFiles } from '../../src/lib/server/photos/store';
-import { putObject, s3 } from '../../src/lib/server/storage';
-import { anodizeThicknessNm, colourAt, findTintModel, heatThicknessNm, MAX_THICKNESS_NM } from '../../src/lib/tint';
+import type { RegionInput } from '~/lib/photos';
+import { developPhoto } from '~/lib/server/photos/attach';
+import { newUploadKey } from '~/lib/server/photos/keys';
+import { photoTransaction, recordPhoto } from '~/lib/server/photos/records';
+import { storeFiles } from '~/lib/server/photos/store';
+import { putObject, s3 } from '~/lib/server/storage';
+import { anodizeThicknessNm, colourAt, findTintModel, heatThicknessNm, MAX_THICKNESS_NM } from '~/lib/tint';
 import { seededChoices } from './random';
 import { encodeJpeg, GREY_CARD, renderScene, type Patch } from './synthetic-photos';
 
@@ -103,7 +103,14 @@ export async function drawScene(coupon: DemoCoupon, thicknesses: number[], rando
     }
   }
   patches.push({ region: grey, colour: GREY_CARD });
-  const image = renderScene({ width: WIDTH, height: HEIGHT, background: BACKGROUND, patches, cast, noise: { sigma: NOISE_SIGMA, random: random.next, sampling: 'row' } });
+  const image = renderScene({
+    width: WIDTH,
+    height: HEIGHT,
+    background: BACKGROUND,
+    patches,
+    cast,
+    noise: { sigma: NOISE_SIGMA, random: random.next, sampling: 'row' },
+  });
   const jpeg = await encodeJpeg(image, 90);
   const inset = 24;
   const regions: RegionInput[] = coupon.layers.map((layer, index) => ({
@@ -136,7 +143,12 @@ async function demoCoupons(db: Database): Promise<DemoCoupon[]> {
     .select({ couponId: couponLayers.couponId, id: couponLayers.id, alloy: alloys.slug })
     .from(couponLayers)
     .innerJoin(alloys, eq(alloys.id, couponLayers.alloyId))
-    .where(inArray(couponLayers.couponId, rows.map((row) => row.id)))
+    .where(
+      inArray(
+        couponLayers.couponId,
+        rows.map((row) => row.id),
+      ),
+    )
     .orderBy(asc(couponLayers.couponId), asc(couponLayers.position));
   return rows.map((row) => ({ ...row, layers: layers.filter((layer) => layer.couponId === row.id) }));
 }

@@ -1,4 +1,4 @@
-import { seededRandom } from '../../src/lib/random';
+import { seededRandom } from '~/lib/random';
 
 /** Seeded choices for the demo, so it is the same on every machine. */
 export function seededChoices(seed: number) {

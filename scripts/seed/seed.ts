@@ -4,7 +4,7 @@ import { hash } from '@node-rs/argon2';
 import { eq, inArray, sql } from 'drizzle-orm';
 import { createDatabase, type Database } from '../../db/client';
 import { alloys, appSettings, couponLayers, coupons, users } from '../../db/schema';
-import { alloyCatalogue, layerKeyOf } from '../../src/lib/alloys';
+import { alloyCatalogue, layerKeyOf } from '~/lib/alloys';
 import { demoPassword, demoPeople } from './people';
 import { demoCoupons } from './coupons';
 import { seedDemoPhotos } from './photos';
@@ -33,7 +33,15 @@ async function seedDemoRecords(db: Database) {
         .values({ ...person, passwordHash, emailVerified: new Date() })
         .onDuplicateKeyUpdate({ set: { role: person.role } });
     }
-    const people = await tx.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, demoPeople.map((person) => person.email)));
+    const people = await tx
+      .select({ id: users.id, email: users.email })
+      .from(users)
+      .where(
+        inArray(
+          users.email,
+          demoPeople.map((person) => person.email),
+        ),
+      );
     const idByEmail = new Map(people.map((person) => [person.email, person.id]));
     const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
     for (const demo of demoCoupons(owners)) {

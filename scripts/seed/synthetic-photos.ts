@@ -5,9 +5,9 @@
  */
 import sharp from 'sharp';
 import { convertLrgbToRgb, convertRgbToLrgb, parse } from 'culori';
-import { seededRandom } from '../../src/lib/random';
-import type { PixelImage } from '../../src/lib/analysis/pixels';
-import type { Region } from '../../src/lib/analysis/schemas';
+import { seededRandom } from '~/lib/random';
+import type { PixelImage } from '~/lib/analysis/pixels';
+import type { Region } from '~/lib/analysis/schemas';
 
 export interface Patch {
   region: Region;
@@ -106,9 +106,13 @@ function addNoise(data: Uint8Array, rowLength: number, noise: SensorNoise) {
 }
 
 export function encodeJpeg(image: PixelImage, quality = 92): Promise<Buffer> {
-  return sharp(image.data, { raw: { width: image.width, height: image.height, channels: image.channels } }).jpeg({ quality }).toBuffer();
+  return sharp(image.data, { raw: { width: image.width, height: image.height, channels: image.channels } })
+    .jpeg({ quality })
+    .toBuffer();
 }
 
 export function encodePng(image: PixelImage): Promise<Buffer> {
-  return sharp(image.data, { raw: { width: image.width, height: image.height, channels: image.channels } }).png().toBuffer();
+  return sharp(image.data, { raw: { width: image.width, height: image.height, channels: image.channels } })
+    .png()
+    .toBuffer();
 }

@@ -45,7 +45,11 @@ smtp.listen(smtpPort, '127.0.0.1');
 const escape = (text) => String(text ?? '').replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
 
 async function inboxPage() {
-  const files = readdirSync(directory).filter((name) => name.endsWith('.eml')).sort().reverse().slice(0, 100);
+  const files = readdirSync(directory)
+    .filter((name) => name.endsWith('.eml'))
+    .sort()
+    .reverse()
+    .slice(0, 100);
   const rows = [];
   for (const file of files) {
     const mail = await simpleParser(readFileSync(path.join(directory, file)));
@@ -72,6 +76,10 @@ const inbox = http.createServer(async (request, response) => {
 inbox.listen(inboxPort, '127.0.0.1');
 
 console.log(`mail fake: SMTP 127.0.0.1:${smtpPort}, inbox http://127.0.0.1:${inboxPort}, files in ${directory}`);
-const stop = () => { smtp.close(() => process.exit(0)); inbox.close(); setTimeout(() => process.exit(0), 2000).unref(); };
+const stop = () => {
+  smtp.close(() => process.exit(0));
+  inbox.close();
+  setTimeout(() => process.exit(0), 2000).unref();
+};
 process.on('SIGTERM', stop);
 process.on('SIGINT', stop);

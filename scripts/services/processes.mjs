@@ -47,7 +47,10 @@ export async function waitForPort(port, { host = '127.0.0.1', timeoutMs = 20_000
     if (pid && !isAlive(pid)) throw new SetupError(`${what} exited during start-up.`);
     const open = await new Promise((resolve) => {
       const socket = net.connect(port, host);
-      socket.once('connect', () => { socket.destroy(); resolve(true); });
+      socket.once('connect', () => {
+        socket.destroy();
+        resolve(true);
+      });
       socket.once('error', () => resolve(false));
     });
     if (open) return;
@@ -74,11 +77,19 @@ export function startBackground(command, args, { pidFile, logFile, env, cwd }) {
 export async function stopByPidFile(pidFile, graceMs = 15_000) {
   const pid = readPid(pidFile);
   if (pid && isAlive(pid)) {
-    try { process.kill(pid, 'SIGTERM'); } catch { /* already gone */ }
+    try {
+      process.kill(pid, 'SIGTERM');
+    } catch {
+      /* already gone */
+    }
     const deadline = Date.now() + graceMs;
     while (isAlive(pid) && Date.now() < deadline) await sleep(100);
     if (isAlive(pid)) {
-      try { process.kill(pid, 'SIGKILL'); } catch { /* already gone */ }
+      try {
+        process.kill(pid, 'SIGKILL');
+      } catch {
+        /* already gone */
+      }
     }
   }
   rmSync(pidFile, { force: true });

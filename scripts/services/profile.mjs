@@ -7,8 +7,20 @@ import { createHash } from 'node:crypto';
 export const root = fileURLToPath(new URL('../..', import.meta.url));
 
 const defaults = {
-  dev: { app: ['PORT', 4321], db: ['OXBLOOM_DB_PORT', 3307], s3: ['OXBLOOM_S3_PORT', 4569], smtp: ['OXBLOOM_SMTP_PORT', 2525], inbox: ['OXBLOOM_INBOX_PORT', 4580] },
-  test: { app: ['OXBLOOM_TEST_PORT', 4331], db: ['OXBLOOM_TEST_DB_PORT', 3317], s3: ['OXBLOOM_TEST_S3_PORT', 4579], smtp: ['OXBLOOM_TEST_SMTP_PORT', 2535], inbox: ['OXBLOOM_TEST_INBOX_PORT', 4590] },
+  dev: {
+    app: ['PORT', 4321],
+    db: ['OXBLOOM_DB_PORT', 3307],
+    s3: ['OXBLOOM_S3_PORT', 4569],
+    smtp: ['OXBLOOM_SMTP_PORT', 2525],
+    inbox: ['OXBLOOM_INBOX_PORT', 4580],
+  },
+  test: {
+    app: ['OXBLOOM_TEST_PORT', 4331],
+    db: ['OXBLOOM_TEST_DB_PORT', 3317],
+    s3: ['OXBLOOM_TEST_S3_PORT', 4579],
+    smtp: ['OXBLOOM_TEST_SMTP_PORT', 2535],
+    inbox: ['OXBLOOM_TEST_INBOX_PORT', 4590],
+  },
 };
 
 function readPort(environment, variable, fallback) {

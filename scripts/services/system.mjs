@@ -6,8 +6,7 @@ import { SetupError } from './processes.mjs';
 import { root } from './profile.mjs';
 
 function hasCommand(name) {
-  return spawnSync('sh', ['-c', `command -v ${name}`], { stdio: 'ignore' }).status === 0
-    || existsSync(`/usr/sbin/${name}`) || existsSync(`/usr/bin/${name}`);
+  return spawnSync('sh', ['-c', `command -v ${name}`], { stdio: 'ignore' }).status === 0 || existsSync(`/usr/sbin/${name}`) || existsSync(`/usr/bin/${name}`);
 }
 
 function run(command, args, what, options = {}) {
@@ -22,7 +21,13 @@ function run(command, args, what, options = {}) {
  * apt-get (as root, or through sudo when that works without a password).
  */
 export function ensureDebianPackages(needs) {
-  const missing = [...new Set(Object.entries(needs).filter(([command]) => !hasCommand(command)).map(([, pkg]) => pkg))];
+  const missing = [
+    ...new Set(
+      Object.entries(needs)
+        .filter(([command]) => !hasCommand(command))
+        .map(([, pkg]) => pkg),
+    ),
+  ];
   if (missing.length === 0) return;
   const asRoot = process.getuid?.() === 0;
   const sudo = asRoot ? [] : ['sudo', '-n'];

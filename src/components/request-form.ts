@@ -19,7 +19,12 @@ export interface RequestCheck<Form extends FieldValues, Body> {
  * each error under the form field that shows it. On success the form's submit handler gets the
  * request body exactly as it was checked.
  */
-export function requestResolver<Form extends FieldValues, Body>({ schema, requestOf, errorAt, firstOnly = false }: RequestCheck<Form, Body>): Resolver<Form, unknown, Body> {
+export function requestResolver<Form extends FieldValues, Body>({
+  schema,
+  requestOf,
+  errorAt,
+  firstOnly = false,
+}: RequestCheck<Form, Body>): Resolver<Form, unknown, Body> {
   // `raw`: hand on the body as built, not zod's parsed copy; the route parses it again.
   const check = zodResolver(schema as z.core.$ZodType<unknown, FieldValues>, undefined, { raw: true });
   return async (form, context, options) => {

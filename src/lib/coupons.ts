@@ -30,11 +30,22 @@ export const labels = {
 export const MAX_LAYERS = 8;
 export const MAX_TEMPERATURE_C = 1600;
 
-const nullable = <T extends z.core.SomeType>(schema: T) => z.pipe(z.optional(z.nullable(schema)), z.transform((value) => value ?? null));
+const nullable = <T extends z.core.SomeType>(schema: T) =>
+  z.pipe(
+    z.optional(z.nullable(schema)),
+    z.transform((value) => value ?? null),
+  );
 const number = (message: string, min: number, max: number, rangeMessage: string, integer?: string) =>
-  nullable(z.number({ error: message }).check(...(integer ? [z.int({ error: integer })] : []), z.gte(min, { error: rangeMessage }), z.lte(max, { error: rangeMessage })));
+  nullable(
+    z
+      .number({ error: message })
+      .check(...(integer ? [z.int({ error: integer })] : []), z.gte(min, { error: rangeMessage }), z.lte(max, { error: rangeMessage })),
+  );
 const optionalText = (max: number, message: string, lines: Lines) =>
-  z.pipe(z.optional(z.nullable(z.string().check(z.trim(), z.maxLength(max, { error: message }), plainText(lines)))), z.transform((value) => (value ? value : null)));
+  z.pipe(
+    z.optional(z.nullable(z.string().check(z.trim(), z.maxLength(max, { error: message }), plainText(lines)))),
+    z.transform((value) => (value ? value : null)),
+  );
 const choice = <T extends readonly [string, ...string[]]>(values: T, message: string) => z.enum(values, { error: message });
 
 /**
@@ -55,7 +66,13 @@ export const couponInputSchema = z
     temperatureC: number('Temperature is a number.', 0, MAX_TEMPERATURE_C, 'Temperature is between 0 and 1600 °C.'),
     temperatureMethod: nullable(choice(temperatureMethods, 'Choose how the temperature was measured.')),
     holdSeconds: nullable(
-      z.number({ error: 'Hold time is a number.' }).check(z.int({ error: 'Hold time is whole seconds.' }), z.gte(0, { error: 'Hold time cannot be negative.' }), z.lte(7 * 24 * 3600, { error: 'Hold time is at most a week.' })),
+      z
+        .number({ error: 'Hold time is a number.' })
+        .check(
+          z.int({ error: 'Hold time is whole seconds.' }),
+          z.gte(0, { error: 'Hold time cannot be negative.' }),
+          z.lte(7 * 24 * 3600, { error: 'Hold time is at most a week.' }),
+        ),
     ),
     volts: number('Voltage is a number.', 1, 300, 'Voltage is between 1 and 300 V.'),
     atmosphere: choice(atmospheres, 'Choose the atmosphere.'),
@@ -81,7 +98,6 @@ export const couponInputSchema = z
 
 export type CouponInput = z.input<typeof couponInputSchema>;
 export type Coupon = z.output<typeof couponInputSchema>;
-
 
 /** "540 °C · 30 min" or "25 V": the heat in a few words. */
 export function describeHeat(coupon: Pick<Coupon, 'process' | 'temperatureC' | 'holdSeconds' | 'volts'>): string {

@@ -17,7 +17,7 @@ const PRINTABLE_ASCII = /^[\x21-\x7e]*$/;
 export const emailSchema = z
   .string({ error: 'Enter your e-mail address.' })
   .trim()
-  .regex(PRINTABLE_ASCII, { error: 'Use only the letters a–z, digits and . _ + - \' in an e-mail address.' })
+  .regex(PRINTABLE_ASCII, { error: "Use only the letters a–z, digits and . _ + - ' in an e-mail address." })
   .toLowerCase()
   .pipe(z.email({ error: 'Enter a valid e-mail address.' }).max(EMAIL_MAX_LENGTH, { error: 'That e-mail address is too long.' }));
 

@@ -9,7 +9,9 @@ import * as z from 'zod/mini';
 export type Lines = 'single' | 'multi';
 
 /** C0 and C1 controls and DEL (general category Cc), except what a multi-line note may keep. */
+// eslint-disable-next-line no-control-regex -- matching control characters is the point
 const CONTROL = /[\u0000-\u001F\u007F-\u009F]/u;
+// eslint-disable-next-line no-control-regex -- as above
 const CONTROL_BUT_LINES = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/u;
 /** Line and paragraph separators: line breaks that are not controls. */
 const LINE_SEPARATORS = /[\u2028\u2029]/u;

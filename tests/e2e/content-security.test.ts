@@ -21,7 +21,9 @@ async function watchedPage(): Promise<{ page: Page; violations: string[] }> {
   });
   page.on('pageerror', (error) => violations.push(`${page.url()}: ${error.message}`));
   await page.addInitScript(() => {
-    document.addEventListener('securitypolicyviolation', (event) => console.error(`Content Security Policy event: ${event.violatedDirective} blocked ${event.blockedURI}`));
+    document.addEventListener('securitypolicyviolation', (event) =>
+      console.error(`Content Security Policy event: ${event.violatedDirective} blocked ${event.blockedURI}`),
+    );
   });
   return { page, violations };
 }
@@ -52,7 +54,10 @@ describe('the Content-Security-Policy in Chromium', () => {
     // The heat planner's islands hydrate and answer from the API (connect-src 'self').
     await visit(page, '/heat-planner', true);
     // Listen before clicking: a quick answer could otherwise arrive before the listener.
-    await Promise.all([page.waitForResponse((response) => response.url().endsWith('/api/tint/predict')), page.getByRole('button', { name: 'Predict the tint' }).click()]);
+    await Promise.all([
+      page.waitForResponse((response) => response.url().endsWith('/api/tint/predict')),
+      page.getByRole('button', { name: 'Predict the tint' }).click(),
+    ]);
     await page.waitForLoadState('networkidle');
 
     expect(violations).toEqual([]);
@@ -103,7 +108,17 @@ describe('the Content-Security-Policy in Chromium', () => {
     const jar = await signedIn(demo.member);
     const created = await api('/api/coupons', {
       jar,
-      json: { title: 'Confirm-before-delete test', layers: ['ti-grade-2'], surfacePrep: 'ground', process: 'oven', temperatureC: 500, temperatureMethod: 'thermocouple', holdSeconds: 600, atmosphere: 'air', visibility: 'private' },
+      json: {
+        title: 'Confirm-before-delete test',
+        layers: ['ti-grade-2'],
+        surfacePrep: 'ground',
+        process: 'oven',
+        temperatureC: 500,
+        temperatureMethod: 'thermocouple',
+        holdSeconds: 600,
+        atmosphere: 'air',
+        visibility: 'private',
+      },
     });
     const { id } = (await created.json()) as { id: number };
     await visit(page, `/coupons/${id}`);

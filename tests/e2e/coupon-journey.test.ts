@@ -8,7 +8,7 @@ import { api, baseUrl } from '../support/app';
 import { demo, demoPassword, signedIn } from '../support/auth';
 import { useBrowser } from '../support/browser';
 import { couponScene, encodeJpeg, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
-import type { Rectangle } from '../../src/lib/photos';
+import type { Rectangle } from '~/lib/photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15.
 const ciede2000 = differenceCiede2000();
@@ -30,7 +30,8 @@ async function signIn(page: Page, email: string) {
   await page.waitForURL(`${baseUrl}/account`);
 }
 
-const hydrated = (page: Page) => page.waitForFunction(() => document.querySelectorAll('astro-island').length > 0 && !document.querySelector('astro-island[ssr]'));
+const hydrated = (page: Page) =>
+  page.waitForFunction(() => document.querySelectorAll('astro-island').length > 0 && !document.querySelector('astro-island[ssr]'));
 
 /** Drags out a rectangle given in photo pixels over the photo as shown. */
 async function drawRegion(page: Page, region: Rectangle) {
@@ -79,7 +80,12 @@ describe('logging a coupon with photos in Chromium', () => {
     const jpeg = await encodeJpeg(renderScene(scene.scene));
     const network = await browser().newCDPSession(page);
     await network.send('Network.enable');
-    await network.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: Math.round(jpeg.length / 3) });
+    await network.send('Network.emulateNetworkConditions', {
+      offline: false,
+      latency: 20,
+      downloadThroughput: -1,
+      uploadThroughput: Math.round(jpeg.length / 3),
+    });
     await page.getByLabel('Choose photos').setInputFiles({ name: 'laminate.jpg', mimeType: 'image/jpeg', buffer: jpeg });
     const upload = page.getByRole('listitem', { name: 'laminate.jpg' });
     const progress = upload.getByRole('progressbar');

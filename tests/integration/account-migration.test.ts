@@ -62,7 +62,9 @@ describe('the migration to exact e-mail addresses', () => {
       await pool.query(
         "INSERT INTO invitations (class_id, email, token_hash, invited_by, expires_at) VALUES (1, 'Wren.Tidewell@Saltmarsh.TEST', REPEAT('a', 64), 'old-2', UTC_TIMESTAMP() + INTERVAL 1 DAY)",
       );
-      await pool.query("INSERT INTO verification_tokens (identifier, token, expires) VALUES ('osric@saltmarsh.test', 'pending', UTC_TIMESTAMP() + INTERVAL 10 MINUTE)");
+      await pool.query(
+        "INSERT INTO verification_tokens (identifier, token, expires) VALUES ('osric@saltmarsh.test', 'pending', UTC_TIMESTAMP() + INTERVAL 10 MINUTE)",
+      );
 
       await migrate(db, { migrationsFolder: migrations });
 

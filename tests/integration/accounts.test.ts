@@ -92,7 +92,10 @@ describe('sign-up', () => {
     await api('/api/account/sign-up', { json: { name: 'Latecomer', email, password: 'a long test password' } });
     const link = new URL(linkIn(await waitForMail(email, 'Confirm your e-mail'), `${baseUrl}/confirm-email`));
     const tokenHash = createHash('sha256').update(link.searchParams.get('token')!).digest('hex');
-    await db.update(accountTokens).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(accountTokens.tokenHash, tokenHash));
+    await db
+      .update(accountTokens)
+      .set({ expiresAt: new Date(Date.now() - 60_000) })
+      .where(eq(accountTokens.tokenHash, tokenHash));
     const response = await api(link.pathname + link.search);
     expect(response.status).toBe(410);
     expect(await response.text()).toContain('This link has expired');
@@ -158,7 +161,10 @@ describe('sign-in by e-mailed link', () => {
   it('refuses an expired link', async () => {
     const jar = newJar();
     const link = await requestLink(demo.instructor, jar);
-    await db.update(verificationTokens).set({ expires: new Date(Date.now() - 60_000) }).where(eq(verificationTokens.identifier, demo.instructor));
+    await db
+      .update(verificationTokens)
+      .set({ expires: new Date(Date.now() - 60_000) })
+      .where(eq(verificationTokens.identifier, demo.instructor));
     const response = await api(link.pathname + link.search, { jar: newJar() });
     expect(new URL(response.headers.get('location')!, baseUrl).search).toContain('error=Verification');
     const page = await api('/sign-in/problem?error=Verification');
@@ -194,7 +200,11 @@ describe('rate limits', () => {
     const token = await csrfToken(jar, from);
     let status = 0;
     for (let attempt = 0; attempt < 31; attempt += 1) {
-      const response = await api('/api/auth/callback/credentials', { jar, from, form: { csrfToken: token, email: newAddress(), password: 'wrong password here' } });
+      const response = await api('/api/auth/callback/credentials', {
+        jar,
+        from,
+        form: { csrfToken: token, email: newAddress(), password: 'wrong password here' },
+      });
       status = response.status;
     }
     expect(status).toBe(429);
@@ -204,7 +214,10 @@ describe('rate limits', () => {
     const email = newAddress();
     const statuses: number[] = [];
     for (let attempt = 0; attempt < 4; attempt += 1) {
-      const response = await api('/api/account/sign-up', { json: { name: 'Eager', email, password: 'a long test password' }, from: `198.51.100.${attempt + 1}` });
+      const response = await api('/api/account/sign-up', {
+        json: { name: 'Eager', email, password: 'a long test password' },
+        from: `198.51.100.${attempt + 1}`,
+      });
       statuses.push(response.status);
     }
     expect(statuses).toEqual([202, 202, 202, 429]);
@@ -292,7 +305,17 @@ describe('account deletion', () => {
     await db.insert(couponLayers).values({ couponId, position: 0, alloyId: alloy.id });
     const keys = ['original.jpg', 'display.webp', 'thumb.webp'].map((name) => `${prefix}photos/${name}`);
     for (const key of keys) await putTestObject(key);
-    await db.insert(photos).values({ couponId, ownerId: account.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
+    await db.insert(photos).values({
+      couponId,
+      ownerId: account.id,
+      originalKey: keys[0],
+      displayKey: keys[1],
+      thumbKey: keys[2],
+      contentType: 'image/jpeg',
+      byteSize: 1,
+      width: 1,
+      height: 1,
+    });
 
     const refused = await api('/api/account', { method: 'DELETE', jar: account.jar, json: { confirmation: 'yes please' } });
     expect(refused.status).toBe(400);
@@ -302,7 +325,16 @@ describe('account deletion', () => {
     expect(deleted.status).toBe(204);
     expect(await db.select().from(users).where(eq(users.id, account.id))).toEqual([]);
     expect(await db.select().from(coupons).where(eq(coupons.id, couponId))).toEqual([]);
-    expect(Number((await db.select({ count: sql<number>`count(*)` }).from(photos).where(eq(photos.ownerId, account.id)))[0].count)).toBe(0);
+    expect(
+      Number(
+        (
+          await db
+            .select({ count: sql<number>`count(*)` })
+            .from(photos)
+            .where(eq(photos.ownerId, account.id))
+        )[0].count,
+      ),
+    ).toBe(0);
     expect(await keysUnder(prefix)).toEqual([]);
     expect((await api('/api/account', { jar: account.jar })).status).toBe(401);
   });

@@ -38,14 +38,31 @@ export const matrix: Row[] = [
   { route: 'alloy catalogue', method: 'GET', path: '/api/alloys', expect: all(200) },
   { route: 'sign-up, invalid', method: 'POST', path: '/api/account/sign-up', json: { email: 'nope' }, expect: all(400) },
   { route: 'forgot password, invalid', method: 'POST', path: '/api/account/forgot-password', json: { email: 'nope' }, expect: all(400) },
-  { route: 'reset password, bad link', method: 'POST', path: '/api/account/reset-password', json: { token: 'x'.repeat(43), password: 'long enough password' }, expect: all(400) },
+  {
+    route: 'reset password, bad link',
+    method: 'POST',
+    path: '/api/account/reset-password',
+    json: { token: 'x'.repeat(43), password: 'long enough password' },
+    expect: all(400),
+  },
   { route: 'confirm e-mail, bad link', method: 'POST', path: '/api/account/confirm-email', json: { token: 'y'.repeat(43) }, expect: all(400) },
   // Signing out really ends the caller's session (and its copies): tests/integration/sessions.test.ts covers signed-in callers.
   { route: 'sign out', method: 'POST', path: '/api/account/sign-out', expect: { visitor: 200, member: null, member2: null, instructor: null, admin: null } },
-  { route: 'sign out everywhere', method: 'POST', path: '/api/account/sign-out-everywhere', expect: { visitor: 401, member: null, member2: null, instructor: null, admin: null } },
+  {
+    route: 'sign out everywhere',
+    method: 'POST',
+    path: '/api/account/sign-out-everywhere',
+    expect: { visitor: 401, member: null, member2: null, instructor: null, admin: null },
+  },
   { route: 'my account', method: 'GET', path: '/api/account', expect: signedInOnly(200) },
   { route: 'rename me, invalid', method: 'PATCH', path: '/api/account', json: { name: '' }, expect: signedInOnly(400) },
-  { route: 'change password, too short', method: 'POST', path: '/api/account/password', json: { currentPassword: 'x', newPassword: 'short' }, expect: signedInOnly(400) },
+  {
+    route: 'change password, too short',
+    method: 'POST',
+    path: '/api/account/password',
+    json: { currentPassword: 'x', newPassword: 'short' },
+    expect: signedInOnly(400),
+  },
   { route: 'download my data', method: 'GET', path: '/api/account/export', expect: signedInOnly(200) },
   { route: 'delete me, unconfirmed', method: 'DELETE', path: '/api/account', json: { confirmation: 'no' }, expect: signedInOnly(400) },
   { route: 'list people', method: 'GET', path: '/api/admin/users', expect: adminOnly(200) },
@@ -56,33 +73,126 @@ export const matrix: Row[] = [
   { route: 'list coupons', method: 'GET', path: '/api/coupons', expect: all(200) },
   { route: 'list my coupons', method: 'GET', path: '/api/coupons?mine=1', expect: signedInOnly(200) },
   { route: 'log a coupon, invalid', method: 'POST', path: '/api/coupons', json: { title: '' }, expect: signedInOnly(400) },
-  { route: 'open a private coupon', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.private}`, expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 } },
+  {
+    route: 'open a private coupon',
+    method: 'GET',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}`,
+    expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 },
+  },
   { route: 'open a members coupon', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.members}`, expect: { ...all(200), visitor: 404 } },
   { route: 'open a public coupon', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.public}`, expect: all(200) },
-  { route: 'change a private coupon, invalid', method: 'PATCH', path: (ids) => `/api/coupons/${ids.memberCoupon.private}`, json: { temperatureC: 5000 }, expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 } },
-  { route: 'change a public coupon, invalid', method: 'PATCH', path: (ids) => `/api/coupons/${ids.memberCoupon.public}`, json: { temperatureC: 5000 }, expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 } },
+  {
+    route: 'change a private coupon, invalid',
+    method: 'PATCH',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}`,
+    json: { temperatureC: 5000 },
+    expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 },
+  },
+  {
+    route: 'change a public coupon, invalid',
+    method: 'PATCH',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.public}`,
+    json: { temperatureC: 5000 },
+    expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 },
+  },
   // The owner's and an admin's deletes really delete: tests/integration/coupons.test.ts covers them.
-  { route: 'delete a private coupon', method: 'DELETE', path: (ids) => `/api/coupons/${ids.memberCoupon.private}`, expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null } },
-  { route: 'delete a members coupon', method: 'DELETE', path: (ids) => `/api/coupons/${ids.memberCoupon.members}`, expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null } },
+  {
+    route: 'delete a private coupon',
+    method: 'DELETE',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}`,
+    expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null },
+  },
+  {
+    route: 'delete a members coupon',
+    method: 'DELETE',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.members}`,
+    expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null },
+  },
 
   // photos and uploads (the photos are the demo member's; uploads and attaches that would store something are tested in uploads.test.ts)
-  { route: 'ask for an upload URL, wrong type', method: 'POST', path: '/api/uploads', json: { filename: 'a.gif', contentType: 'image/gif', size: 10 }, expect: signedInOnly(415) },
-  { route: 'list a private coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 } },
-  { route: 'list a members coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.members}/photos`, expect: { ...all(200), visitor: 404 } },
+  {
+    route: 'ask for an upload URL, wrong type',
+    method: 'POST',
+    path: '/api/uploads',
+    json: { filename: 'a.gif', contentType: 'image/gif', size: 10 },
+    expect: signedInOnly(415),
+  },
+  {
+    route: 'list a private coupon’s photos',
+    method: 'GET',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`,
+    expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 },
+  },
+  {
+    route: 'list a members coupon’s photos',
+    method: 'GET',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.members}/photos`,
+    expect: { ...all(200), visitor: 404 },
+  },
   { route: 'list a public coupon’s photos', method: 'GET', path: (ids) => `/api/coupons/${ids.memberCoupon.public}/photos`, expect: all(200) },
-  { route: 'attach to a private coupon, invalid', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, json: {}, expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 } },
-  { route: 'attach to a public coupon, invalid', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.public}/photos`, json: {}, expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 } },
-  { route: 'attach someone else’s upload', method: 'POST', path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`, json: { key: 'users/someone-else/photos/x/original.jpg' }, expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 403 } },
-  { route: 'open a photo of a private coupon', method: 'GET', path: (ids) => `/api/photos/${ids.memberPhoto.private}`, expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 } },
+  {
+    route: 'attach to a private coupon, invalid',
+    method: 'POST',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`,
+    json: {},
+    expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 },
+  },
+  {
+    route: 'attach to a public coupon, invalid',
+    method: 'POST',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.public}/photos`,
+    json: {},
+    expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 },
+  },
+  {
+    route: 'attach someone else’s upload',
+    method: 'POST',
+    path: (ids) => `/api/coupons/${ids.memberCoupon.private}/photos`,
+    json: { key: 'users/someone-else/photos/x/original.jpg' },
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 403 },
+  },
+  {
+    route: 'open a photo of a private coupon',
+    method: 'GET',
+    path: (ids) => `/api/photos/${ids.memberPhoto.private}`,
+    expect: { visitor: 404, member: 200, member2: 404, instructor: 404, admin: 200 },
+  },
   { route: 'open a photo of a members coupon', method: 'GET', path: (ids) => `/api/photos/${ids.memberPhoto.members}`, expect: { ...all(200), visitor: 404 } },
-  { route: 'mark regions on a private photo, invalid', method: 'PUT', path: (ids) => `/api/photos/${ids.memberPhoto.private}/regions`, json: { regions: 'all' }, expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 } },
-  { route: 'mark regions on a members photo, invalid', method: 'PUT', path: (ids) => `/api/photos/${ids.memberPhoto.members}/regions`, json: { regions: 'all' }, expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 } },
+  {
+    route: 'mark regions on a private photo, invalid',
+    method: 'PUT',
+    path: (ids) => `/api/photos/${ids.memberPhoto.private}/regions`,
+    json: { regions: 'all' },
+    expect: { visitor: 401, member: 400, member2: 404, instructor: 404, admin: 400 },
+  },
+  {
+    route: 'mark regions on a members photo, invalid',
+    method: 'PUT',
+    path: (ids) => `/api/photos/${ids.memberPhoto.members}/regions`,
+    json: { regions: 'all' },
+    expect: { visitor: 401, member: 400, member2: 403, instructor: 403, admin: 400 },
+  },
   // The owner's and an admin's deletes really delete: tests/integration/photos.test.ts covers them.
-  { route: 'delete a photo of a private coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.private}`, expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null } },
-  { route: 'delete a photo of a members coupon', method: 'DELETE', path: (ids) => `/api/photos/${ids.memberPhoto.members}`, expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null } },
+  {
+    route: 'delete a photo of a private coupon',
+    method: 'DELETE',
+    path: (ids) => `/api/photos/${ids.memberPhoto.private}`,
+    expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: null },
+  },
+  {
+    route: 'delete a photo of a members coupon',
+    method: 'DELETE',
+    path: (ids) => `/api/photos/${ids.memberPhoto.members}`,
+    expect: { visitor: 401, member: null, member2: 403, instructor: 403, admin: null },
+  },
 
   // the library (lists only what each caller may see: tests/integration/library.test.ts)
-  { route: 'browse the library, filtered and sorted', method: 'GET', path: '/api/coupons?pair=ti-grade-2%2Bti-grade-5&sort=temperature&unit=F&tempMin=400', expect: all(200) },
+  {
+    route: 'browse the library, filtered and sorted',
+    method: 'GET',
+    path: '/api/coupons?pair=ti-grade-2%2Bti-grade-5&sort=temperature&unit=F&tempMin=400',
+    expect: all(200),
+  },
   { route: 'browse the library, bad filter', method: 'GET', path: '/api/coupons?alloy=unobtainium', expect: all(400) },
   { route: 'browse the library, forged cursor', method: 'GET', path: '/api/coupons?cursor=eyJpZCI6MX0', expect: all(400) },
   { route: 'browse my part of the library', method: 'GET', path: '/api/coupons?mine=1&photos=1', expect: signedInOnly(200) },
@@ -107,7 +217,11 @@ beforeAll(async () => {
   const { db, pool } = testDatabase();
   const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, 'demo-seeded'));
   await pool.end();
-  const listed = ((await (await api('/api/coupons?mine=1&limit=100', { jar: jars.member })).json()) as { coupons: { id: number; createdAt: string; visibility: 'private' | 'members' | 'public' }[] }).coupons;
+  const listed = (
+    (await (await api('/api/coupons?mine=1&limit=100', { jar: jars.member })).json()) as {
+      coupons: { id: number; createdAt: string; visibility: 'private' | 'members' | 'public' }[];
+    }
+  ).coupons;
   const mine = listed.filter((coupon) => new Date(coupon.createdAt) < marker.createdAt);
   const first = (visibility: 'private' | 'members' | 'public') => mine.find((coupon) => coupon.visibility === visibility)!.id;
   ids.memberCoupon = { private: first('private'), members: first('members'), public: first('public') };
@@ -142,7 +256,9 @@ describe('no route answers 500 to a stranger', () => {
   ];
   const callers: Who[] = ['visitor', 'member'];
   // Rows that would really change data for a caller (null) are left out for that caller here too.
-  it.each(writes.flatMap((row) => callers.filter((who) => row.expect[who] !== null).flatMap((who) => junk.map(([label, init]) => ({ ...row, who, label, init })))))('$method $route as $who with $label', async ({ method, path, who, init }) => {
+  it.each(
+    writes.flatMap((row) => callers.filter((who) => row.expect[who] !== null).flatMap((who) => junk.map(([label, init]) => ({ ...row, who, label, init })))),
+  )('$method $route as $who with $label', async ({ method, path, who, init }) => {
     const jar = { cookies: new Map(jars[who].cookies) };
     const response = await api(typeof path === 'function' ? path(ids) : path, { ...init, method, jar });
     expect(response.status).toBeLessThan(500);
@@ -151,19 +267,46 @@ describe('no route answers 500 to a stranger', () => {
 
 describe('no page answers 500 to a stranger', () => {
   const pages = [
-    '/', '/safety', '/sign-in', '/sign-in?error=Verification&callbackUrl=//evil.example', '/sign-in/check-email', '/sign-in/problem?error=x',
-    '/sign-up', '/forgot-password', '/reset-password', '/reset-password?token=abc', '/confirm-email', '/confirm-email?token=%00%ff',
-    '/account', '/admin/users', '/coupons', '/coupons/new', '/coupons/abc', '/coupons/0', '/coupons/99999999', '/coupons/1/edit',
-    '/tint-ladder', '/tint-ladder?alloy=unobtainium&light=x', '/heat-planner',
-    '/library', '/library?view=grid&sort=hold&order=asc', '/library?cursor=%00&alloy=x&tempMin=hot&limit=-1&mine=1', '/library?pair=a%2Bb%2Bc&unit=K',
-    '/library/search', '/library/search?hex=%23c08040&maxDeltaE=3', '/library/search?hex=%00&alloy=x&maxDeltaE=-1&limit=x',
+    '/',
+    '/safety',
+    '/sign-in',
+    '/sign-in?error=Verification&callbackUrl=//evil.example',
+    '/sign-in/check-email',
+    '/sign-in/problem?error=x',
+    '/sign-up',
+    '/forgot-password',
+    '/reset-password',
+    '/reset-password?token=abc',
+    '/confirm-email',
+    '/confirm-email?token=%00%ff',
+    '/account',
+    '/admin/users',
+    '/coupons',
+    '/coupons/new',
+    '/coupons/abc',
+    '/coupons/0',
+    '/coupons/99999999',
+    '/coupons/1/edit',
+    '/tint-ladder',
+    '/tint-ladder?alloy=unobtainium&light=x',
+    '/heat-planner',
+    '/library',
+    '/library?view=grid&sort=hold&order=asc',
+    '/library?cursor=%00&alloy=x&tempMin=hot&limit=-1&mine=1',
+    '/library?pair=a%2Bb%2Bc&unit=K',
+    '/library/search',
+    '/library/search?hex=%23c08040&maxDeltaE=3',
+    '/library/search?hex=%00&alloy=x&maxDeltaE=-1&limit=x',
   ];
   it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
     const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });
     expect(response.status).toBeLessThan(500);
   });
   it.each(pages.filter((path) => !path.includes('?')))('POST junk to %s', async (path) => {
-    const response = await api(path, { form: { intent: 'delete', token: 'x', email: 'nope', role: 'admin', userId: 'x' }, jar: { cookies: new Map(jars.member.cookies) } });
+    const response = await api(path, {
+      form: { intent: 'delete', token: 'x', email: 'nope', role: 'admin', userId: 'x' },
+      jar: { cookies: new Map(jars.member.cookies) },
+    });
     expect(response.status).toBeLessThan(500);
   });
 });

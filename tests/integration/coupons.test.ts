@@ -122,7 +122,10 @@ describe('who sees which coupon', () => {
     expect(forMember2.coupons.some((coupon: CouponJson) => coupon.id === ids.members)).toBe(true);
     expect(forMember2.coupons.some((coupon: CouponJson) => coupon.id === ids.private)).toBe(false);
     const [{ id: member2Id }] = await db.select({ id: users.id }).from(users).where(eq(users.email, demo.member2));
-    const member2Private = await db.select({ id: coupons.id }).from(coupons).where(and(eq(coupons.ownerId, member2Id), eq(coupons.visibility, 'private')));
+    const member2Private = await db
+      .select({ id: coupons.id })
+      .from(coupons)
+      .where(and(eq(coupons.ownerId, member2Id), eq(coupons.visibility, 'private')));
     const listedForMember2 = new Set(forMember2.coupons.map((coupon: CouponJson) => coupon.id));
     expect(member2Private.length).toBeGreaterThan(0);
     const totalForMember2 = forMember2.total;
@@ -171,12 +174,40 @@ describe('changing and deleting', () => {
   it('keeps a layer’s swatches when only its alloy changes, and moves them to the new alloy', async () => {
     const coupon = await create(member);
     const [owner] = await db.select({ id: coupons.ownerId }).from(coupons).where(eq(coupons.id, coupon.id));
-    const [layer] = await db.select().from(couponLayers).where(and(eq(couponLayers.couponId, coupon.id), eq(couponLayers.position, 0)));
+    const [layer] = await db
+      .select()
+      .from(couponLayers)
+      .where(and(eq(couponLayers.couponId, coupon.id), eq(couponLayers.position, 0)));
     const [{ id: photoId }] = await db
       .insert(photos)
-      .values({ couponId: coupon.id, ownerId: owner.id, originalKey: 'k1', displayKey: 'k2', thumbKey: 'k3', contentType: 'image/jpeg', byteSize: 1, width: 10, height: 10 })
+      .values({
+        couponId: coupon.id,
+        ownerId: owner.id,
+        originalKey: 'k1',
+        displayKey: 'k2',
+        thumbKey: 'k3',
+        contentType: 'image/jpeg',
+        byteSize: 1,
+        width: 10,
+        height: 10,
+      })
       .$returningId();
-    await db.insert(swatches).values({ photoId, couponId: coupon.id, layerId: layer.id, alloyId: layer.alloyId, rank: 0, share: 1, spread: 0, hex: '#c8a050', labL: 68, labA: 8, labB: 45, oklabL: 0.72, oklabA: 0.02, oklabB: 0.1 });
+    await db.insert(swatches).values({
+      photoId,
+      couponId: coupon.id,
+      layerId: layer.id,
+      alloyId: layer.alloyId,
+      rank: 0,
+      share: 1,
+      spread: 0,
+      hex: '#c8a050',
+      labL: 68,
+      labA: 8,
+      labB: 45,
+      oklabL: 0.72,
+      oklabA: 0.02,
+      oklabB: 0.1,
+    });
 
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'PATCH', jar: member, json: { layers: ['ti-grade-23', 'ti-grade-5'] } })).status).toBe(200);
     const [grade23] = await db.select().from(alloys).where(eq(alloys.slug, 'ti-grade-23'));
@@ -196,7 +227,18 @@ describe('changing and deleting', () => {
     const [owner] = await db.select({ id: coupons.ownerId }).from(coupons).where(eq(coupons.id, coupon.id));
     const keys = ['a.jpg', 'a.webp', 'a-thumb.webp', 'a-analysis.png'].map((name) => `users/${owner.id}/test-delete/${coupon.id}/${name}`);
     for (const key of keys) await putTestObject(key);
-    await db.insert(photos).values({ couponId: coupon.id, ownerId: owner.id, originalKey: keys[0], displayKey: keys[1], thumbKey: keys[2], analysisKey: keys[3], contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 });
+    await db.insert(photos).values({
+      couponId: coupon.id,
+      ownerId: owner.id,
+      originalKey: keys[0],
+      displayKey: keys[1],
+      thumbKey: keys[2],
+      analysisKey: keys[3],
+      contentType: 'image/jpeg',
+      byteSize: 1,
+      width: 1,
+      height: 1,
+    });
 
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'DELETE', jar: member })).status).toBe(204);
     expect((await api(`/api/coupons/${coupon.id}`, { jar: member })).status).toBe(404);

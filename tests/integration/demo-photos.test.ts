@@ -4,7 +4,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { and, asc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { appSettings, couponLayers, coupons, photos, regions, swatches, users } from '../../db/schema';
 import { demoPeople } from '../../scripts/seed/people';
-import { objectSize, s3 } from '../../src/lib/server/storage';
+import { objectSize, s3 } from '~/lib/server/storage';
 import { testDatabase } from '../support/database';
 
 const { db, pool } = testDatabase();
@@ -51,7 +51,12 @@ describe('the demo photos', () => {
       for (const key of [photo.originalKey, photo.displayKey, photo.thumbKey, photo.analysisKey!]) expect(await objectSize(key), key).toBeGreaterThan(0);
       const layers = await db.select({ id: couponLayers.id }).from(couponLayers).where(eq(couponLayers.couponId, photo.couponId));
       const drawn = await db.select().from(regions).where(eq(regions.photoId, photo.id));
-      expect(drawn.filter((region) => region.kind === 'layer').map((region) => region.layerId).sort()).toEqual(layers.map((layer) => layer.id).sort());
+      expect(
+        drawn
+          .filter((region) => region.kind === 'layer')
+          .map((region) => region.layerId)
+          .sort(),
+      ).toEqual(layers.map((layer) => layer.id).sort());
       expect(drawn.filter((region) => region.kind === 'grey')).toHaveLength(1);
       const means = await db.select().from(swatches).where(eq(swatches.photoId, photo.id));
       for (const layer of layers) expect(means.some((swatch) => swatch.layerId === layer.id && swatch.isMean && swatch.alloyId !== null)).toBe(true);

@@ -3,11 +3,13 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { api } from '../support/app';
 import { demo, signedIn } from '../support/auth';
-import { alloyCatalogue } from '../../src/lib/alloys';
+import { alloyCatalogue } from '~/lib/alloys';
 
 /** SMTP sessions the mail fake saw close without sending a message (connection checks), from its log. */
 function mailProbes(): number {
-  return readFileSync(path.join(process.env.OXBLOOM_MAIL_DIR!, 'sessions.log'), 'utf8').split('\n').filter((line) => line.endsWith(' probe')).length;
+  return readFileSync(path.join(process.env.OXBLOOM_MAIL_DIR!, 'sessions.log'), 'utf8')
+    .split('\n')
+    .filter((line) => line.endsWith(' probe')).length;
 }
 
 describe('GET /api/health', () => {

@@ -5,9 +5,9 @@ import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
-import { seededRandom } from '../../src/lib/random';
+import { seededRandom } from '~/lib/random';
 // ΔE00 as checked against Sharma, Wu & Dalal (2005) Table 1 in tests/unit/colour/delta-e.test.ts.
-import { deltaE2000 } from '../../src/lib/colour';
+import { deltaE2000 } from '~/lib/colour';
 
 /**
  * GET /api/swatches/search against a brute-force ΔE00 scan written here over the same rows (every
@@ -33,7 +33,14 @@ beforeAll(async () => {
     jars[who] = await signedIn(demo[who]);
     userIds[who] = (await db.select({ id: users.id }).from(users).where(eq(users.email, demo[who])))[0].id;
   }
-  const alloyIds = Object.fromEntries((await db.select({ id: alloys.id, slug: alloys.slug }).from(alloys).where(inArray(alloys.slug, ['ti-grade-2', 'niobium']))).map((row) => [row.slug, row.id]));
+  const alloyIds = Object.fromEntries(
+    (
+      await db
+        .select({ id: alloys.id, slug: alloys.slug })
+        .from(alloys)
+        .where(inArray(alloys.slug, ['ti-grade-2', 'niobium']))
+    ).map((row) => [row.slug, row.id]),
+  );
   const random = seededRandom(4242);
   const plan = [
     ['member', 'private'],
@@ -47,19 +54,58 @@ beforeAll(async () => {
     const slug = index % 2 ? 'niobium' : 'ti-grade-2';
     const [{ id: couponId }] = await db
       .insert(coupons)
-      .values({ ownerId: userIds[owner], title: `Colour search fixture ${index}`, layerKey: slug, surfacePrep: 'ground', process: 'oven', temperatureC: 400 + index, holdSeconds: 600, visibility })
+      .values({
+        ownerId: userIds[owner],
+        title: `Colour search fixture ${index}`,
+        layerKey: slug,
+        surfacePrep: 'ground',
+        process: 'oven',
+        temperatureC: 400 + index,
+        holdSeconds: 600,
+        visibility,
+      })
       .$returningId();
     created.push(couponId);
     const [{ id: layerId }] = await db.insert(couponLayers).values({ couponId, position: 0, alloyId: alloyIds[slug] }).$returningId();
     const [{ id: photoId }] = await db
       .insert(photos)
-      .values({ couponId, ownerId: userIds[owner], originalKey: `test/colour/${couponId}.jpg`, displayKey: 'x', thumbKey: 'x', contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 })
+      .values({
+        couponId,
+        ownerId: userIds[owner],
+        originalKey: `test/colour/${couponId}.jpg`,
+        displayKey: 'x',
+        thumbKey: 'x',
+        contentType: 'image/jpeg',
+        byteSize: 1,
+        width: 1,
+        height: 1,
+      })
       .$returningId();
     const rows = Array.from({ length: 12 }, (_, rank) => {
       // Spread from very close to well outside the largest limit tested.
       const radius = 0.5 + random() * 14;
-      const lab = { l: centreLab.l + (random() - 0.5) * radius, a: centreLab.a + (random() - 0.5) * radius * 2, b: centreLab.b + (random() - 0.5) * radius * 2 };
-      return { photoId, couponId, layerId, alloyId: alloyIds[slug], rank: rank + 1, isMean: false, share: 0.1, spread: 1, hex: formatHex({ mode: 'lab65', ...lab }), labL: lab.l, labA: lab.a, labB: lab.b, oklabL: 0, oklabA: 0, oklabB: 0 };
+      const lab = {
+        l: centreLab.l + (random() - 0.5) * radius,
+        a: centreLab.a + (random() - 0.5) * radius * 2,
+        b: centreLab.b + (random() - 0.5) * radius * 2,
+      };
+      return {
+        photoId,
+        couponId,
+        layerId,
+        alloyId: alloyIds[slug],
+        rank: rank + 1,
+        isMean: false,
+        share: 0.1,
+        spread: 1,
+        hex: formatHex({ mode: 'lab65', ...lab }),
+        labL: lab.l,
+        labA: lab.a,
+        labB: lab.b,
+        oklabL: 0,
+        oklabA: 0,
+        oklabB: 0,
+      };
     });
     // A mean exactly at the centre: means are not searched.
     rows.push({ ...rows[0], rank: 0, isMean: true, labL: centreLab.l, labA: centreLab.a, labB: centreLab.b, hex: CENTRE });
@@ -138,7 +184,12 @@ describe('GET /api/swatches/search', () => {
   it('never shows someone else’s private swatch, and members-only ones only to the signed in', async () => {
     const owners = async (who: Who) => {
       const hits = await search(who, `hex=${encodeURIComponent(CENTRE)}&maxDeltaE=10&limit=100`);
-      const [rows] = (await db.execute(sql`select id, owner_id, visibility from coupons where id in (${sql.join(hits.map((hit) => sql`${hit.couponId}`), sql`, `)})`)) as unknown as [{ owner_id: string; visibility: string }[]];
+      const [rows] = (await db.execute(
+        sql`select id, owner_id, visibility from coupons where id in (${sql.join(
+          hits.map((hit) => sql`${hit.couponId}`),
+          sql`, `,
+        )})`,
+      )) as unknown as [{ owner_id: string; visibility: string }[]];
       return rows;
     };
     for (const row of await owners('visitor')) expect(row.visibility).toBe('public');

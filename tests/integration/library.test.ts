@@ -67,7 +67,17 @@ async function insertCoupon(spec: Spec): Promise<number> {
       const key = `test/library/${id}-${position}`;
       const [{ id: photoId }] = await db
         .insert(photos)
-        .values({ couponId: id, ownerId: userIds[spec.owner], originalKey: `${key}.jpg`, displayKey: `${key}.webp`, thumbKey: `${key}-t.webp`, contentType: 'image/jpeg', byteSize: 1, width: 1, height: 1 })
+        .values({
+          couponId: id,
+          ownerId: userIds[spec.owner],
+          originalKey: `${key}.jpg`,
+          displayKey: `${key}.webp`,
+          thumbKey: `${key}-t.webp`,
+          contentType: 'image/jpeg',
+          byteSize: 1,
+          width: 1,
+          height: 1,
+        })
         .$returningId();
       const base = { photoId, couponId: id, layerId, alloyId, spread: 1, labL: 50, labA: 0, labB: 0, oklabL: 0.5, oklabA: 0, oklabB: 0 };
       // A mean (share 1, not a cluster), a minor cluster, and the dominant one: the dominant is the largest *cluster*.
@@ -104,7 +114,14 @@ beforeAll(async () => {
   // Someone else's private and members-only coupons, and anodized ones in the voltage band.
   await insertCoupon({ owner: 'member2', visibility: 'private', layers: ['niobium'], temperatureC: 1555, holdSeconds: 600 });
   await insertCoupon({ owner: 'member2', visibility: 'members', layers: ['niobium'], temperatureC: 1556, holdSeconds: 600 });
-  await insertCoupon({ owner: 'member', visibility: 'public', layers: ['steel-1084'], temperatureC: 1580, holdSeconds: 60, title: '=HYPERLINK("http://x.example"),\nsecond line' });
+  await insertCoupon({
+    owner: 'member',
+    visibility: 'public',
+    layers: ['steel-1084'],
+    temperatureC: 1580,
+    holdSeconds: 60,
+    title: '=HYPERLINK("http://x.example"),\nsecond line',
+  });
   for (const volts of [910, 950, 990]) await insertCoupon({ owner: 'member', visibility: 'public', layers: ['niobium'], process: 'anodize', volts });
 });
 
@@ -121,12 +138,20 @@ function visibleSql(who: Who) {
 }
 
 async function sqlIds(who: Who, condition: ReturnType<typeof sql>, order = sql`c.id`): Promise<number[]> {
-  const [rows] = (await db.execute(sql`select c.id from coupons c where ${visibleSql(who)} and ${condition} order by ${order}`)) as unknown as [{ id: number }[]];
+  const [rows] = (await db.execute(sql`select c.id from coupons c where ${visibleSql(who)} and ${condition} order by ${order}`)) as unknown as [
+    { id: number }[],
+  ];
   return rows.map((row) => Number(row.id));
 }
 
 interface ListBody {
-  coupons: { id: number; visibility: string; temperatureC: number | null; holdSeconds: number | null; dominantSwatches: { position: number; alloy: string; hex: string }[] }[];
+  coupons: {
+    id: number;
+    visibility: string;
+    temperatureC: number | null;
+    holdSeconds: number | null;
+    dominantSwatches: { position: number; alloy: string; hex: string }[];
+  }[];
   total: number;
   nextCursor: string | null;
 }
@@ -154,7 +179,11 @@ const inBand = sql`c.temperature_c between ${BAND.low} and ${BAND.high}`;
 
 describe('GET /api/coupons library filters', () => {
   it.each([
-    ['alloy on any layer', 'alloy=ti-grade-5', sql`exists (select 1 from coupon_layers l join alloys a on a.id = l.alloy_id where l.coupon_id = c.id and a.slug = 'ti-grade-5')`],
+    [
+      'alloy on any layer',
+      'alloy=ti-grade-5',
+      sql`exists (select 1 from coupon_layers l join alloys a on a.id = l.alloy_id where l.coupon_id = c.id and a.slug = 'ti-grade-5')`,
+    ],
     ['an alloy pair, one order', 'pair=ti-grade-5%2Bti-grade-2', sql`c.layer_key = 'ti-grade-2+ti-grade-5'`],
     ['an alloy pair, the other order, as two fields', 'pairA=ti-grade-2&pairB=ti-grade-5', sql`c.layer_key = 'ti-grade-2+ti-grade-5'`],
     ['process', 'process=torch', sql`c.process = 'torch'`],
@@ -283,7 +312,9 @@ describe('the /library page', () => {
     const body = await list('member', `${fence}&sort=temperature&limit=100`);
     // The same band typed in °F (t/°F = 1.8·t/°C + 32, NIST SP 811 appendix B.8).
     const toF = (celsius: number) => celsius * 1.8 + 32;
-    const html = await (await api(`/library?tempMin=${toF(BAND.low)}&tempMax=${toF(BAND.high)}&sort=temperature&limit=100&unit=F`, { jar: jars.member })).text();
+    const html = await (
+      await api(`/library?tempMin=${toF(BAND.low)}&tempMax=${toF(BAND.high)}&sort=temperature&limit=100&unit=F`, { jar: jars.member })
+    ).text();
     for (const coupon of body.coupons) expect(html).toContain(`href="/coupons/${coupon.id}"`);
     // Source: NIST SP 811 appendix B.8: 1510 °C = 2750 °F.
     expect(html).toContain('2750 °F');

@@ -198,7 +198,10 @@ describe('the database compares addresses exactly', () => {
     const token = `exact-${tag}`;
     await db.insert(verificationTokens).values({ identifier: demo.member, token, expires: new Date(Date.now() + 60_000) });
     const found = (identifier: string) =>
-      db.select().from(verificationTokens).where(and(eq(verificationTokens.identifier, identifier), eq(verificationTokens.token, token)));
+      db
+        .select()
+        .from(verificationTokens)
+        .where(and(eq(verificationTokens.identifier, identifier), eq(verificationTokens.token, token)));
     expect(await found(demo.member.replace('e', 'è'))).toEqual([]);
     expect(await found(demo.member.toUpperCase())).toEqual([]);
     expect(await found(demo.member)).toHaveLength(1);

@@ -5,7 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
 import { coupons, photos, uploads } from '../../db/schema';
-import type { RegionInput } from '../../src/lib/photos';
+import type { RegionInput } from '~/lib/photos';
 import { api, type Jar } from '../support/app';
 import { signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
@@ -96,8 +96,8 @@ describe('deleting a coupon while a photo is attached to it', () => {
           });
           // A third of the deletions come while the photo is decoded; the rest the moment its
           // derived files are in storage, 0–24 ms on: while its rows are written, or just after.
-          const deleted = (round % 3 === 0 ? Promise.resolve() : derivedFilesWritten(folderOf(key), () => answered).then(() => pause((round * 7) % 25))).then(() =>
-            deleteCoupon(coupon.id),
+          const deleted = (round % 3 === 0 ? Promise.resolve() : derivedFilesWritten(folderOf(key), () => answered).then(() => pause((round * 7) % 25))).then(
+            () => deleteCoupon(coupon.id),
           );
           attaches.push(await outcome(await attached));
           deletions.push(await outcome(await deleted));

@@ -11,11 +11,11 @@ import sharp from 'sharp';
 import exifr from 'exifr';
 import { converter, differenceCiede2000 } from 'culori';
 import { alloys, couponLayers, photos, regions, swatches, uploads } from '../../db/schema';
-import type { PhotoView, RegionInput, SwatchView } from '../../src/lib/photos';
-import { db as appDb } from '../../src/lib/server/db';
-import { analysePhoto } from '../../src/lib/server/photos/measure';
-import { getObject, objectSize, s3 } from '../../src/lib/server/storage';
-import { STALE_AFTER_MINUTES } from '../../src/lib/server/photos/uploads-ledger';
+import type { PhotoView, RegionInput, SwatchView } from '~/lib/photos';
+import { db as appDb } from '~/lib/server/db';
+import { analysePhoto } from '~/lib/server/photos/measure';
+import { getObject, objectSize, s3 } from '~/lib/server/storage';
+import { STALE_AFTER_MINUTES } from '~/lib/server/photos/uploads-ledger';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
@@ -88,7 +88,11 @@ describe('swatches per layer from drawn regions', () => {
       expect(group.swatches.length).toBeLessThanOrEqual(5);
     });
     // Stored per photo and layer, with the layer's alloy copied for colour search.
-    const rows = await db.select({ layerId: swatches.layerId, alloy: alloys.slug, isMean: swatches.isMean, rank: swatches.rank }).from(swatches).innerJoin(alloys, eq(alloys.id, swatches.alloyId)).where(eq(swatches.photoId, photo.id));
+    const rows = await db
+      .select({ layerId: swatches.layerId, alloy: alloys.slug, isMean: swatches.isMean, rank: swatches.rank })
+      .from(swatches)
+      .innerJoin(alloys, eq(alloys.id, swatches.alloyId))
+      .where(eq(swatches.photoId, photo.id));
     expect(rows.filter((row) => row.layerId === target.layerIds[0]).every((row) => row.alloy === 'ti-grade-2')).toBe(true);
     expect(rows.filter((row) => row.isMean).map((row) => row.rank)).toEqual([0, 0]);
   });
@@ -111,11 +115,37 @@ describe('swatches per layer from drawn regions', () => {
   });
 
   it.each([
-    ['a layer of another coupon', (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0] + 100_000, x: 0, y: 0, width: 10, height: 10 }], 'regions.0.layerId: that layer is not part of this coupon.'],
-    ['the same layer twice', (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0], x: 0, y: 0, width: 10, height: 10 }, { kind: 'layer', layerId: target.layerIds[0], x: 20, y: 0, width: 10, height: 10 }], 'regions.1.layerId: Mark each layer once.'],
-    ['two grey cards', () => [{ kind: 'grey', x: 0, y: 0, width: 10, height: 10 }, { kind: 'grey', x: 20, y: 0, width: 10, height: 10 }], 'regions.1.kind: Mark at most one grey card.'],
-    ['a rectangle reaching outside the photo', (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0], x: 1100, y: 0, width: 200, height: 10 }], 'regions.0: The rectangle reaches outside the photo (1200 × 800 pixels).'],
-    ['a negative corner', (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0], x: -1, y: 0, width: 20, height: 10 }], 'regions.0.x: x cannot be negative.'],
+    [
+      'a layer of another coupon',
+      (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0] + 100_000, x: 0, y: 0, width: 10, height: 10 }],
+      'regions.0.layerId: that layer is not part of this coupon.',
+    ],
+    [
+      'the same layer twice',
+      (target: TestCoupon) => [
+        { kind: 'layer', layerId: target.layerIds[0], x: 0, y: 0, width: 10, height: 10 },
+        { kind: 'layer', layerId: target.layerIds[0], x: 20, y: 0, width: 10, height: 10 },
+      ],
+      'regions.1.layerId: Mark each layer once.',
+    ],
+    [
+      'two grey cards',
+      () => [
+        { kind: 'grey', x: 0, y: 0, width: 10, height: 10 },
+        { kind: 'grey', x: 20, y: 0, width: 10, height: 10 },
+      ],
+      'regions.1.kind: Mark at most one grey card.',
+    ],
+    [
+      'a rectangle reaching outside the photo',
+      (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0], x: 1100, y: 0, width: 200, height: 10 }],
+      'regions.0: The rectangle reaches outside the photo (1200 × 800 pixels).',
+    ],
+    [
+      'a negative corner',
+      (target: TestCoupon) => [{ kind: 'layer', layerId: target.layerIds[0], x: -1, y: 0, width: 20, height: 10 }],
+      'regions.0.x: x cannot be negative.',
+    ],
     ['an unknown kind', () => [{ kind: 'glare', x: 0, y: 0, width: 10, height: 10 }], "regions.0.kind: A region's kind is 'layer' or 'grey'."],
   ])('refuses regions with %s when attaching (400), keeping the upload for a retry', async (_label, make, message) => {
     const target = await coupon('member', 'private');
@@ -172,7 +202,10 @@ describe('editing regions measures the photo again', () => {
     const put = (json: unknown) => api(`/api/photos/${photo.id}/regions`, { jar: jars.member, method: 'PUT', json });
     for (const [body, message] of [
       [{}, 'regions: regions is a list of rectangles.'],
-      [{ regions: [{ kind: 'layer', layerId: target.layerIds[0], x: 0, y: 0, width: 5000, height: 10 }] }, 'regions.0: The rectangle reaches outside the photo (1200 × 800 pixels).'],
+      [
+        { regions: [{ kind: 'layer', layerId: target.layerIds[0], x: 0, y: 0, width: 5000, height: 10 }] },
+        'regions.0: The rectangle reaches outside the photo (1200 × 800 pixels).',
+      ],
       [{ regions: [{ kind: 'layer', layerId: target.layerIds[0], x: 0.5, y: 0, width: 10, height: 10 }] }, 'regions.0.x: x is a whole number of pixels.'],
     ] as const) {
       const response = await put(body);
@@ -280,7 +313,10 @@ describe('deleting a photo', () => {
   it('keeps no ledger entry for a photo whose upload URL expired long ago', async () => {
     const target = await coupon('member', 'private');
     const photo = await storedPhoto(jars.member, target.id, warmJpeg);
-    await db.update(photos).set({ createdAt: new Date(Date.now() - 60 * 60_000) }).where(eq(photos.id, photo.id));
+    await db
+      .update(photos)
+      .set({ createdAt: new Date(Date.now() - 60 * 60_000) })
+      .where(eq(photos.id, photo.id));
     const [row] = await db.select().from(photos).where(eq(photos.id, photo.id));
     expect((await api(`/api/photos/${photo.id}`, { jar: jars.member, method: 'DELETE' })).status).toBe(204);
     for (const key of files(row)) expect(await objectSize(key)).toBeUndefined();
@@ -305,7 +341,9 @@ describe('a GPS position is never stored or served', () => {
   ])('%s with a position: kept only as a copy without it', async (_label, contentType, encode) => {
     const pixels = renderScene(couponScene(600, 400, [TINTS.blue, TINTS.bronze]).scene);
     const raw = sharp(pixels.data, { raw: { width: 600, height: 400, channels: 3 } });
-    const original = await encode(raw).withExif({ IFD0: { Make: 'Oxbloom Test Camera', Model: 'Bench 1' }, IFD3: position }).toBuffer();
+    const original = await encode(raw)
+      .withExif({ IFD0: { Make: 'Oxbloom Test Camera', Model: 'Bench 1' }, IFD3: position })
+      .toBuffer();
     expect((await exifr.gps(original))?.latitude).toBeCloseTo(51.5, 6); // the upload really carries a position
 
     const target = await coupon('member', 'private');
@@ -336,7 +374,10 @@ describe('a GPS position is never stored or served', () => {
   it('keeps an original without a position as it was uploaded', async () => {
     const target = await coupon('member', 'private');
     const { ticket, response } = await uploadPhoto(jars.member, target.id, warmJpeg);
-    const [row] = await db.select().from(photos).where(eq(photos.id, (await response.json()).id));
+    const [row] = await db
+      .select()
+      .from(photos)
+      .where(eq(photos.id, (await response.json()).id));
     expect(row.originalKey).toBe(ticket.key);
     expect(Buffer.from((await getObject(row.originalKey))!).equals(warmJpeg)).toBe(true);
   });

@@ -8,8 +8,8 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { rateLimits } from '../../db/schema';
-import { hit, refund, type Limit } from '../../src/lib/server/rate-limit';
-import { db as appDb } from '../../src/lib/server/db';
+import { hit, refund, type Limit } from '~/lib/server/rate-limit';
+import { db as appDb } from '~/lib/server/db';
 import { newJar } from '../support/app';
 import { postSignIn } from '../support/auth';
 import { testDatabase } from '../support/database';
@@ -31,7 +31,10 @@ async function letTimePass(bucket: string, seconds: number) {
 }
 
 async function storedHits(bucket: string): Promise<number | undefined> {
-  const [row] = await db.select({ hits: rateLimits.hits }).from(rateLimits).where(sql`${rateLimits.bucket} = ${bucket}`);
+  const [row] = await db
+    .select({ hits: rateLimits.hits })
+    .from(rateLimits)
+    .where(sql`${rateLimits.bucket} = ${bucket}`);
   return row?.hits;
 }
 

@@ -43,7 +43,14 @@ const cookieOf = (jar: Jar) => [...jar.cookies].map(([name, value]) => `${name}=
  * reads the answer while still sending (curl) would see it; reports the answer's status and body
  * and how many bytes had been sent when it came.
  */
-function sendBody(path: string, jar: Jar, head: string, total: number, chunked: boolean, holdAfter = MEGABYTE): Promise<{ status: number; body: string; sentBeforeAnswer: number }> {
+function sendBody(
+  path: string,
+  jar: Jar,
+  head: string,
+  total: number,
+  chunked: boolean,
+  holdAfter = MEGABYTE,
+): Promise<{ status: number; body: string; sentBeforeAnswer: number }> {
   return new Promise((resolve, reject) => {
     const tail = '"}';
     const headers: Record<string, string> = { 'content-type': 'application/json', origin: baseUrl, cookie: cookieOf(jar), 'x-forwarded-for': clientAddress };
@@ -137,21 +144,34 @@ describe('content types', () => {
   });
 
   it('a JSON route takes JSON with a charset', async () => {
-    const response = await api('/api/tint/ladder', { method: 'POST', headers: { 'content-type': 'application/json; charset=utf-8' }, body: JSON.stringify(ladder) });
+    const response = await api('/api/tint/ladder', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json; charset=utf-8' },
+      body: JSON.stringify(ladder),
+    });
     expect(response.status).toBe(200);
   });
 
   it('a route for our no-JavaScript forms takes a form and JSON, and refuses other types with 415', async () => {
     expect((await api('/api/account/forgot-password', { form: { email: `form-${unique()}@oxbloom.test` } })).status).toBe(202);
     expect((await api('/api/account/forgot-password', { json: { email: `json-${unique()}@oxbloom.test` } })).status).toBe(202);
-    const plain = await api('/api/account/forgot-password', { method: 'POST', headers: { 'content-type': 'text/plain' }, body: `email=plain-${unique()}@oxbloom.test` });
+    const plain = await api('/api/account/forgot-password', {
+      method: 'POST',
+      headers: { 'content-type': 'text/plain' },
+      body: `email=plain-${unique()}@oxbloom.test`,
+    });
     expect(plain.status).toBe(415);
     expect(await plain.json()).toEqual({ error: expect.any(String) });
   });
 
   it('the sign-out button (a form post with no fields) still signs out', async () => {
     const jar = await signedIn(demo.member2);
-    const response = await api('/api/account/sign-out', { jar, method: 'POST', headers: { accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded' }, body: '' });
+    const response = await api('/api/account/sign-out', {
+      jar,
+      method: 'POST',
+      headers: { accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded' },
+      body: '',
+    });
     expect(response.status).toBe(303);
     expect((await api('/api/account', { jar })).status).toBe(401);
   });

@@ -62,18 +62,19 @@ describe('Content-Security-Policy', () => {
     for (const source of scripts.slice(1)) expect(source).toMatch(/^'sha256-[A-Za-z0-9+/]+=*'$/);
   });
 
-  it.each([...visitorPages.map((path) => ({ path, who: 'visitor' })), ...memberPages.map((path) => ({ path, who: 'member' })), { path: '/admin/users', who: 'admin' }])(
-    'allows every inline script of $path (as $who) by its hash, and it has no inline event handlers',
-    async ({ path, who }) => {
-      const jar = who === 'member' ? member : who === 'admin' ? admin : undefined;
-      const response = await api(path, { jar });
-      const html = await response.text();
-      const allowed = parsePolicy(response.headers.get('content-security-policy')).get('script-src')!;
-      for (const script of inlineScripts(html)) expect(allowed, script.slice(0, 80)).toContain(sha256Source(script));
-      expect(html).not.toMatch(/<[^>]+\son[a-z]+\s*=/i);
-      expect(html).not.toMatch(/javascript:/i);
-    },
-  );
+  it.each([
+    ...visitorPages.map((path) => ({ path, who: 'visitor' })),
+    ...memberPages.map((path) => ({ path, who: 'member' })),
+    { path: '/admin/users', who: 'admin' },
+  ])('allows every inline script of $path (as $who) by its hash, and it has no inline event handlers', async ({ path, who }) => {
+    const jar = who === 'member' ? member : who === 'admin' ? admin : undefined;
+    const response = await api(path, { jar });
+    const html = await response.text();
+    const allowed = parsePolicy(response.headers.get('content-security-policy')).get('script-src')!;
+    for (const script of inlineScripts(html)) expect(allowed, script.slice(0, 80)).toContain(sha256Source(script));
+    expect(html).not.toMatch(/<[^>]+\son[a-z]+\s*=/i);
+    expect(html).not.toMatch(/javascript:/i);
+  });
 
   it('a coupon page with photos shows them from storage, which the policy allows', async () => {
     const response = await api(`/coupons/${couponWithPhotos}`, { jar: member });
@@ -81,7 +82,8 @@ describe('Content-Security-Policy', () => {
     const images = [...html.matchAll(/<img[^>]+src="([^"]+)"/g)].map((match) => new URL(match[1].replace(/&amp;/g, '&'), 'http://x').origin);
     const allowed = parsePolicy(response.headers.get('content-security-policy')).get('img-src')!;
     for (const origin of images.filter((origin) => origin !== 'http://x')) expect(allowed).toContain(origin);
-    for (const script of inlineScripts(html)) expect(parsePolicy(response.headers.get('content-security-policy')).get('script-src')).toContain(sha256Source(script));
+    for (const script of inlineScripts(html))
+      expect(parsePolicy(response.headers.get('content-security-policy')).get('script-src')).toContain(sha256Source(script));
     expect(html).not.toMatch(/<[^>]+\son[a-z]+\s*=/i);
   });
 });
@@ -111,9 +113,12 @@ describe('Cache-Control: no-store', () => {
     expect((await api(path, { jar: member })).headers.get('cache-control')).toBe('no-store');
   });
 
-  it.each(['/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=abc', '/confirm-email?token=abc', '/api/auth/session', '/api/auth/csrf'])('on the account page %s when signed out', async (path) => {
-    expect((await api(path)).headers.get('cache-control')).toBe('no-store');
-  });
+  it.each(['/sign-in', '/sign-up', '/forgot-password', '/reset-password?token=abc', '/confirm-email?token=abc', '/api/auth/session', '/api/auth/csrf'])(
+    'on the account page %s when signed out',
+    async (path) => {
+      expect((await api(path)).headers.get('cache-control')).toBe('no-store');
+    },
+  );
 
   it('a public answer to a visitor may still be cached', async () => {
     expect((await api('/api/alloys')).headers.get('cache-control')).toBe('public, max-age=300');

@@ -5,7 +5,7 @@ import { eq, inArray, lt, sql } from 'drizzle-orm';
 import { testDatabase } from '../support/database';
 import { alloys, appSettings, couponLayers, coupons, users } from '../../db/schema';
 import { demoPassword, demoPeople } from '../../scripts/seed/people';
-import { alloyCatalogue } from '../../src/lib/alloys';
+import { alloyCatalogue } from '~/lib/alloys';
 
 const { db, pool } = testDatabase();
 afterAll(() => pool.end());
@@ -31,7 +31,10 @@ describe('the demo seed', () => {
   it('has about two hundred coupons, every one with at least one layer', async () => {
     // Other tests add coupons while this runs; the demo's are dated before the seed's marker.
     const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, 'demo-seeded'));
-    const [{ seeded }] = await db.select({ seeded: sql<number>`count(*)` }).from(coupons).where(lt(coupons.createdAt, marker.createdAt));
+    const [{ seeded }] = await db
+      .select({ seeded: sql<number>`count(*)` })
+      .from(coupons)
+      .where(lt(coupons.createdAt, marker.createdAt));
     expect(Number(seeded)).toBe(200);
     const [{ bare }] = await db
       .select({ bare: sql<number>`count(*)` })
@@ -47,7 +50,10 @@ describe('the demo seed', () => {
       .innerJoin(users, eq(users.id, coupons.ownerId))
       .groupBy(users.email, coupons.visibility);
     for (const email of ['member@oxbloom.test', 'member2@oxbloom.test']) {
-      const visibilities = rows.filter((row) => row.email === email).map((row) => row.visibility).sort();
+      const visibilities = rows
+        .filter((row) => row.email === email)
+        .map((row) => row.visibility)
+        .sort();
       expect(visibilities, email).toEqual(['members', 'private', 'public']);
     }
   });
@@ -56,8 +62,27 @@ describe('the demo seed', () => {
     // Counted so that what other tests add meanwhile doesn't count: the demo's own rows.
     const [marker] = await db.select().from(appSettings).where(eq(appSettings.key, 'demo-seeded'));
     const demoRows = async () => ({
-      coupons: Number((await db.select({ count: sql<number>`count(*)` }).from(coupons).where(lt(coupons.createdAt, marker.createdAt)))[0].count),
-      people: Number((await db.select({ count: sql<number>`count(*)` }).from(users).where(inArray(users.email, demoPeople.map((person) => person.email))))[0].count),
+      coupons: Number(
+        (
+          await db
+            .select({ count: sql<number>`count(*)` })
+            .from(coupons)
+            .where(lt(coupons.createdAt, marker.createdAt))
+        )[0].count,
+      ),
+      people: Number(
+        (
+          await db
+            .select({ count: sql<number>`count(*)` })
+            .from(users)
+            .where(
+              inArray(
+                users.email,
+                demoPeople.map((person) => person.email),
+              ),
+            )
+        )[0].count,
+      ),
       alloys: await countOf(alloys),
     });
     const before = await demoRows();

@@ -54,7 +54,12 @@ describe('signing out', () => {
     // valid for a week, but naming no live session.
     const [member] = await db.select().from(users).where(eq(users.email, demo.member));
     const name = 'authjs.session-token';
-    const token = await encode({ token: { sub: member.id, email: member.email, role: member.role }, secret: process.env.AUTH_SECRET!, salt: name, maxAge: 3600 });
+    const token = await encode({
+      token: { sub: member.id, email: member.email, role: member.role },
+      secret: process.env.AUTH_SECRET!,
+      salt: name,
+      maxAge: 3600,
+    });
     expect((await api('/api/account', { headers: { cookie: `${name}=${token}` } })).status).toBe(401);
     expect((await api('/account', { headers: { cookie: `${name}=${token}` } })).status).toBe(302);
   });
@@ -98,7 +103,10 @@ describe('changing the password', () => {
     const account = await confirmedAccount();
     const other = await signIn(account.email, account.password);
     const before = copyOf(account.jar);
-    const response = await api('/api/account/password', { jar: account.jar, json: { currentPassword: account.password, newPassword: 'a second long password' } });
+    const response = await api('/api/account/password', {
+      jar: account.jar,
+      json: { currentPassword: account.password, newPassword: 'a second long password' },
+    });
     expect(response.status).toBe(200);
     expect(await statusWith(account.jar)).toBe(200);
     expect(await statusWith(other)).toBe(401);
@@ -109,7 +117,10 @@ describe('changing the password', () => {
   it('from the account page ends every other session too', async () => {
     const account = await confirmedAccount();
     const other = await signIn(account.email, account.password);
-    const response = await api('/account', { jar: account.jar, form: { intent: 'password', currentPassword: account.password, newPassword: 'a second long password' } });
+    const response = await api('/account', {
+      jar: account.jar,
+      form: { intent: 'password', currentPassword: account.password, newPassword: 'a second long password' },
+    });
     expect(response.status).toBe(200);
     expect(await response.text()).toContain('Your password is changed, and every other browser signed in to your account is signed out.');
     expect(await statusWith(account.jar)).toBe(200);
@@ -121,7 +132,10 @@ describe('changing the password', () => {
     const other = await signIn(account.email, account.password);
     const statuses: number[] = [];
     for (let attempt = 0; attempt < 5; attempt += 1) {
-      const response = await api('/api/account/password', { jar: account.jar, json: { currentPassword: `wrong guess ${attempt}`, newPassword: 'a second long password' } });
+      const response = await api('/api/account/password', {
+        jar: account.jar,
+        json: { currentPassword: `wrong guess ${attempt}`, newPassword: 'a second long password' },
+      });
       statuses.push(response.status);
     }
     expect(statuses).toEqual([400, 400, 400, 400, 400]);
@@ -130,14 +144,20 @@ describe('changing the password', () => {
     expect(limited.status).toBe(429);
     expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(0);
     expect((await limited.json()).error).toMatch(/^Too many attempts/);
-    const page = await api('/account', { jar: account.jar, form: { intent: 'password', currentPassword: account.password, newPassword: 'a second long password' } });
+    const page = await api('/account', {
+      jar: account.jar,
+      form: { intent: 'password', currentPassword: account.password, newPassword: 'a second long password' },
+    });
     expect(page.status).toBe(429);
     expect(Number(page.headers.get('retry-after'))).toBeGreaterThan(0);
     // Nothing changed: the old password still signs in.
     expect(sessionCookie(await signIn(account.email, account.password))).toBeDefined();
     // Another account is not held back.
     const bystander = await confirmedAccount();
-    const right = await api('/api/account/password', { jar: bystander.jar, json: { currentPassword: bystander.password, newPassword: 'a second long password' } });
+    const right = await api('/api/account/password', {
+      jar: bystander.jar,
+      json: { currentPassword: bystander.password, newPassword: 'a second long password' },
+    });
     expect(right.status).toBe(200);
   });
 
@@ -171,7 +191,10 @@ describe('resetting a forgotten password', () => {
     await api('/api/account/forgot-password', { json: { email: account.email } });
     const link = new URL(linkIn(await waitForMail(account.email, 'Reset your Oxbloom password'), `${baseUrl}/reset-password`));
     const resetter = newJar();
-    const response = await api(link.pathname + link.search, { jar: resetter, form: { token: link.searchParams.get('token')!, password: 'a brand new password' } });
+    const response = await api(link.pathname + link.search, {
+      jar: resetter,
+      form: { token: link.searchParams.get('token')!, password: 'a brand new password' },
+    });
     expect(response.status).toBe(303);
     expect(await statusWith(resetter)).toBe(200);
     expect(await statusWith(account.jar)).toBe(401);
@@ -183,7 +206,11 @@ describe('changing a role', () => {
     const admin = await signIn(demo.admin);
     const account = await confirmedAccount();
     const [member] = await db.select({ id: users.id }).from(users).where(eq(users.email, demo.member));
-    const [privateCoupon] = await db.select({ id: coupons.id }).from(coupons).where(and(eq(coupons.ownerId, member.id), eq(coupons.visibility, 'private'))).limit(1);
+    const [privateCoupon] = await db
+      .select({ id: coupons.id })
+      .from(coupons)
+      .where(and(eq(coupons.ownerId, member.id), eq(coupons.visibility, 'private')))
+      .limit(1);
     const promoted = await api(`/api/admin/users/${account.id}`, { method: 'PATCH', jar: admin, json: { role: 'admin' } });
     expect(promoted.status).toBe(200);
     // An admin may read a member's private coupon (the session's role decides reads).

@@ -41,7 +41,12 @@ describe('sign-in requests other than a plain form', () => {
   });
 
   it('a link request as JSON is refused with 415', async () => {
-    const response = await postRaw('/api/auth/signin/nodemailer', 'application/json', (token) => JSON.stringify({ csrfToken: token, email: newAddress() }), addressFor(0));
+    const response = await postRaw(
+      '/api/auth/signin/nodemailer',
+      'application/json',
+      (token) => JSON.stringify({ csrfToken: token, email: newAddress() }),
+      addressFor(0),
+    );
     expect(response.status).toBe(415);
   });
 });
@@ -54,7 +59,13 @@ describe('sign-in forms written to slip past the limit', () => {
       const response = await postRaw(
         '/api/auth/callback/credentials',
         'application/x-www-form-urlencoded',
-        (token) => new URLSearchParams([['csrfToken', token], ['email', newAddress()], ['email', victim], ['password', wrong]]).toString(),
+        (token) =>
+          new URLSearchParams([
+            ['csrfToken', token],
+            ['email', newAddress()],
+            ['email', victim],
+            ['password', wrong],
+          ]).toString(),
         addressFor(attempt),
       );
       statuses.push(response.status);
@@ -69,7 +80,12 @@ describe('sign-in forms written to slip past the limit', () => {
     const email = newAddress();
     const statuses: number[] = [];
     for (let attempt = 0; attempt < 6; attempt += 1) {
-      const response = await postRaw(path, 'application/x-www-form-urlencoded', (token) => new URLSearchParams({ csrfToken: token, email, password: wrong }).toString(), addressFor(attempt));
+      const response = await postRaw(
+        path,
+        'application/x-www-form-urlencoded',
+        (token) => new URLSearchParams({ csrfToken: token, email, password: wrong }).toString(),
+        addressFor(attempt),
+      );
       statuses.push(response.status);
     }
     // Either Auth.js answers (and the sixth try is limited) or the route is not served at all.
@@ -85,7 +101,12 @@ describe('sign-in forms written to slip past the limit', () => {
   ])('a link request for an address written with %s is refused, not mailed', async (_label, spell) => {
     const victim = newAddress();
     for (let attempt = 0; attempt < 3; attempt += 1) {
-      const response = await postRaw('/api/auth/signin/nodemailer', 'application/x-www-form-urlencoded', (token) => new URLSearchParams({ csrfToken: token, email: spell(victim, attempt) }).toString(), addressFor(attempt));
+      const response = await postRaw(
+        '/api/auth/signin/nodemailer',
+        'application/x-www-form-urlencoded',
+        (token) => new URLSearchParams({ csrfToken: token, email: spell(victim, attempt) }).toString(),
+        addressFor(attempt),
+      );
       expect(response.status).toBe(400);
       expect(await response.json()).toEqual({ error: expect.stringContaining('email'), field: 'email' });
     }
@@ -105,12 +126,22 @@ describe('sign-in forms written to slip past the limit', () => {
   it('a browser whose sign-in is refused goes back to the sign-in page, which says why and for how long', async () => {
     const email = newAddress();
     for (let attempt = 0; attempt < 5; attempt += 1) {
-      await postRaw('/api/auth/callback/credentials', 'application/x-www-form-urlencoded', (token) => new URLSearchParams({ csrfToken: token, email, password: wrong }).toString(), addressFor(attempt));
+      await postRaw(
+        '/api/auth/callback/credentials',
+        'application/x-www-form-urlencoded',
+        (token) => new URLSearchParams({ csrfToken: token, email, password: wrong }).toString(),
+        addressFor(attempt),
+      );
     }
     const jar = newJar();
     const from = addressFor(9);
     const token = await csrfToken(jar, from);
-    const refused = await api('/api/auth/callback/credentials', { jar, from, headers: { accept: 'text/html' }, form: { csrfToken: token, email, password: wrong } });
+    const refused = await api('/api/auth/callback/credentials', {
+      jar,
+      from,
+      headers: { accept: 'text/html' },
+      form: { csrfToken: token, email, password: wrong },
+    });
     expect(refused.status).toBe(303);
     const location = new URL(refused.headers.get('location')!, baseUrl);
     expect(location.pathname).toBe('/sign-in');

@@ -78,7 +78,13 @@ describe('POST /api/tint/predict', () => {
   });
 
   it('a forge-welding heat carries its warnings', async () => {
-    const { status, body } = await post('/api/tint/predict', { alloy: 'ti-grade-5', process: 'heat', temperatureC: 1050, holdMinutes: 20, atmosphere: 'argon' });
+    const { status, body } = await post('/api/tint/predict', {
+      alloy: 'ti-grade-5',
+      process: 'heat',
+      temperatureC: 1050,
+      holdMinutes: 20,
+      atmosphere: 'argon',
+    });
     expect(status).toBe(200);
     const codes = body.warnings.map((warning: any) => warning.code);
     expect(codes).toEqual(expect.arrayContaining(['forge-welding-range', 'fe-ti-eutectic', 'beta-transus', 'inert-gas']));
@@ -158,7 +164,11 @@ describe('POST /api/tint/plan-pair', () => {
   });
 
   it('with a target, scores by ΔE00 to the wanted pair', async () => {
-    const { status, body } = await post('/api/tint/plan-pair', { alloys: ['ti-grade-2', 'ti-grade-5'], target: ['#2c7ebd', '#2c7ebd'], holdMinutes: { min: 10, max: 120 } });
+    const { status, body } = await post('/api/tint/plan-pair', {
+      alloys: ['ti-grade-2', 'ti-grade-5'],
+      target: ['#2c7ebd', '#2c7ebd'],
+      holdMinutes: { min: 10, max: 120 },
+    });
     expect(status).toBe(200);
     expect(body.suggestions[0].score).toBeLessThan(5);
     for (let i = 1; i < body.suggestions.length; i += 1) expect(body.suggestions[i].score).toBeGreaterThanOrEqual(body.suggestions[i - 1].score);

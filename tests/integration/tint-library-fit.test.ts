@@ -3,8 +3,8 @@ import { api, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { deleteCoupons, insertSyntheticCoupon, type SyntheticCoupon } from '../fixtures/library-coupons';
-import { heatThicknessNm, type HeatGrowthLaw } from '../../src/lib/tint/growth';
-import { findTintModel } from '../../src/lib/tint/models';
+import { heatThicknessNm, type HeatGrowthLaw } from '~/lib/tint/growth';
+import { findTintModel } from '~/lib/tint/models';
 
 // The heat planner's library fit against the real database: coupons with swatches are inserted
 // directly, their colours made by our own tint model at thicknesses from a known growth law

@@ -6,15 +6,27 @@ import { crc32 } from 'node:zlib';
 import { eq, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { photos, uploads } from '../../db/schema';
-import { TOO_BIG, UNACCEPTED_TYPE } from '../../src/lib/photo-requests';
-import { MAX_UPLOAD_BYTES, type UploadTicket } from '../../src/lib/photos';
-import { db as appDb } from '../../src/lib/server/db';
-import { objectSize, putObject, s3 } from '../../src/lib/server/storage';
-import { STALE_AFTER_MINUTES, sweepIfDue, sweepStaleUploads } from '../../src/lib/server/photos/uploads-ledger';
+import { TOO_BIG, UNACCEPTED_TYPE } from '~/lib/photo-requests';
+import { MAX_UPLOAD_BYTES, type UploadTicket } from '~/lib/photos';
+import { db as appDb } from '~/lib/server/db';
+import { objectSize, putObject, s3 } from '~/lib/server/storage';
+import { STALE_AFTER_MINUTES, sweepIfDue, sweepStaleUploads } from '~/lib/server/photos/uploads-ledger';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
-import { attach, deleteTestCoupons, insertCoupon, presign, putToStorage, requestUpload, storedPhoto, uploadPhoto, urlExpiry, userIdOf, type TestCoupon } from '../support/photos';
+import {
+  attach,
+  deleteTestCoupons,
+  insertCoupon,
+  presign,
+  putToStorage,
+  requestUpload,
+  storedPhoto,
+  uploadPhoto,
+  urlExpiry,
+  userIdOf,
+  type TestCoupon,
+} from '../support/photos';
 import { presignedSignature } from '../support/sigv4';
 import { deleteTestObjects, keysUnder } from '../support/storage';
 import { couponScene, encodeJpeg, encodePng, renderScene, TINTS } from '../fixtures/synthetic-photos';
@@ -41,7 +53,15 @@ afterAll(async () => {
   s3().destroy();
 });
 
-const photoCount = async () => Number((await db.select({ count: sql<number>`count(*)` }).from(photos).where(eq(photos.couponId, coupon.id)))[0].count);
+const photoCount = async () =>
+  Number(
+    (
+      await db
+        .select({ count: sql<number>`count(*)` })
+        .from(photos)
+        .where(eq(photos.couponId, coupon.id))
+    )[0].count,
+  );
 const entry = async (key: string) => (await db.select().from(uploads).where(eq(uploads.key, key)))[0];
 
 /**
@@ -97,7 +117,11 @@ describe('asking for an upload URL', () => {
     const notJson = await api('/api/uploads', { jar: member, method: 'POST', body: 'filename=a.jpg', headers: { 'content-type': 'application/json' } });
     expect(notJson.status).toBe(400);
     expect((await notJson.json()).error).toBe('The request body must be JSON.');
-    const crossSite = await api('/api/uploads', { jar: member, json: { filename: 'a.jpg', contentType: 'image/jpeg', size: 10 }, headers: { origin: 'https://elsewhere.example' } });
+    const crossSite = await api('/api/uploads', {
+      jar: member,
+      json: { filename: 'a.jpg', contentType: 'image/jpeg', size: 10 },
+      headers: { origin: 'https://elsewhere.example' },
+    });
     expect(crossSite.status).toBe(403);
   });
 });
@@ -147,7 +171,11 @@ describe('the whole path: presign, PUT to storage, attach', () => {
 
 /** A PNG whose header claims 12000×10000 (120 MP): PNG (ISO/IEC 15948) IHDR width and height, then a CRC-32. */
 async function overPixelLimit(): Promise<Buffer> {
-  const png = Buffer.from(await sharp({ create: { width: 1, height: 1, channels: 3, background: '#000' } }).png().toBuffer());
+  const png = Buffer.from(
+    await sharp({ create: { width: 1, height: 1, channels: 3, background: '#000' } })
+      .png()
+      .toBuffer(),
+  );
   png.writeUInt32BE(12_000, 16);
   png.writeUInt32BE(10_000, 20);
   png.writeUInt32BE(crc32(png.subarray(12, 29)), 29);
@@ -156,11 +184,32 @@ async function overPixelLimit(): Promise<Buffer> {
 
 describe('files that are not usable photos are refused at attach, and deleted', () => {
   const cases: [string, () => Promise<Uint8Array>, string, number, string][] = [
-    ['a text file named .jpg', async () => Buffer.from('heat 1: 540 °C, 20 min, air\n'.repeat(20)), 'image/jpeg', 422, 'The file is not an image. Upload a JPEG, PNG, WebP or HEIC photo.'],
-    ['a truncated JPEG', async () => jpeg.subarray(0, Math.floor(jpeg.length / 2)), 'image/jpeg', 422, 'The image is cut short or damaged. Upload the original file again.'],
+    [
+      'a text file named .jpg',
+      async () => Buffer.from('heat 1: 540 °C, 20 min, air\n'.repeat(20)),
+      'image/jpeg',
+      422,
+      'The file is not an image. Upload a JPEG, PNG, WebP or HEIC photo.',
+    ],
+    [
+      'a truncated JPEG',
+      async () => jpeg.subarray(0, Math.floor(jpeg.length / 2)),
+      'image/jpeg',
+      422,
+      'The image is cut short or damaged. Upload the original file again.',
+    ],
     ['a zero-byte file', async () => new Uint8Array(0), 'image/jpeg', 422, 'The file is empty.'],
     ['an image over the pixel limit', overPixelLimit, 'image/png', 422, 'The image has more than 100 megapixels. Upload a smaller copy.'],
-    ['a GIF declared as PNG', () => sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } }).gif().toBuffer(), 'image/png', 422, 'This kind of image is not accepted. Upload a JPEG, PNG, WebP or HEIC photo.'],
+    [
+      'a GIF declared as PNG',
+      () =>
+        sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } })
+          .gif()
+          .toBuffer(),
+      'image/png',
+      422,
+      'This kind of image is not accepted. Upload a JPEG, PNG, WebP or HEIC photo.',
+    ],
   ];
   it.each(cases)('%s', async (_label, make, contentType, status, message) => {
     const bytes = await make();
@@ -215,7 +264,10 @@ describe('keys that are not the caller’s usable upload', () => {
   it('an upload gone stale', async () => {
     const ticket = await presign(member, 'old.jpg', 'image/jpeg', jpeg.length);
     await putToStorage(ticket, jpeg);
-    await db.update(uploads).set({ expiresAt: new Date(Date.now() - (STALE_AFTER_MINUTES + 5) * 60_000) }).where(eq(uploads.key, ticket.key));
+    await db
+      .update(uploads)
+      .set({ expiresAt: new Date(Date.now() - (STALE_AFTER_MINUTES + 5) * 60_000) })
+      .where(eq(uploads.key, ticket.key));
     const response = await attach(member, coupon.id, { key: ticket.key });
     expect(response.status).toBe(410);
     expect((await response.json()).error).toBe('That upload has expired. Upload the photo again.');
@@ -309,7 +361,10 @@ describe('the sweep of stale uploads', () => {
     expect(await objectSize(ticket.key)).toBeUndefined();
     expect(await entry(ticket.key)).toBeDefined();
     // Once the URL has expired nothing more can arrive: the entry goes.
-    await db.update(uploads).set({ createdAt: new Date(urlExpiry(ticket) - 3 * 60 * 60_000) }).where(eq(uploads.key, ticket.key));
+    await db
+      .update(uploads)
+      .set({ createdAt: new Date(urlExpiry(ticket) - 3 * 60 * 60_000) })
+      .where(eq(uploads.key, ticket.key));
     await sweepStaleUploads();
     expect(await entry(ticket.key)).toBeUndefined();
   });
@@ -355,7 +410,10 @@ describe('an upload URL binds the declared type and size', () => {
     await putAnyway(ticket, fiveTimes, ticket.headers);
     const response = await attach(member, coupon.id, { key: ticket.key });
     expect(response.status).toBe(422);
-    expect(await response.json()).toEqual({ error: `The file in storage has ${fiveTimes.length} bytes, not the ${jpeg.length} bytes declared. Upload the photo again.`, field: 'key' });
+    expect(await response.json()).toEqual({
+      error: `The file in storage has ${fiveTimes.length} bytes, not the ${jpeg.length} bytes declared. Upload the photo again.`,
+      field: 'key',
+    });
     expect(await photoCount()).toBe(before);
     expect(await objectSize(ticket.key)).toBeUndefined();
     await expectRetired(ticket);
@@ -380,7 +438,10 @@ describe('an upload URL binds the declared type and size', () => {
     await putToStorage(ticket, png);
     const response = await attach(member, coupon.id, { key: ticket.key });
     expect(response.status).toBe(422);
-    expect(await response.json()).toEqual({ error: 'This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.', field: 'key' });
+    expect(await response.json()).toEqual({
+      error: 'This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.',
+      field: 'key',
+    });
     expect(await photoCount()).toBe(before);
     expect(await objectSize(ticket.key)).toBeUndefined();
     await expectRetired(ticket);
@@ -409,7 +470,10 @@ describe('open uploads per person', () => {
   let jar: Jar;
   let uploaderId: string;
   const given: string[] = [];
-  const openEntries = async () => (await db.select().from(uploads).where(eq(uploads.ownerId, uploaderId))).filter((row) => row.expiresAt.getTime() > Date.now() - STALE_AFTER_MINUTES * 60_000);
+  const openEntries = async () =>
+    (await db.select().from(uploads).where(eq(uploads.ownerId, uploaderId))).filter(
+      (row) => row.expiresAt.getTime() > Date.now() - STALE_AFTER_MINUTES * 60_000,
+    );
   async function ask(): Promise<Response> {
     const response = await requestUpload(jar, { filename: 'coupon.jpg', contentType: 'image/jpeg', size: jpeg.length });
     if (response.status === 201) given.push((await response.clone().json()).key);
@@ -451,7 +515,10 @@ describe('open uploads per person', () => {
       expect((await attach(jar, own.id, { key: tickets[0].key })).status).toBe(201);
       expect((await ask()).status).toBe(201);
       expect((await ask()).status).toBe(429);
-      await db.update(uploads).set({ expiresAt: new Date(Date.now() - (STALE_AFTER_MINUTES + 1) * 60_000) }).where(eq(uploads.key, tickets[1].key));
+      await db
+        .update(uploads)
+        .set({ expiresAt: new Date(Date.now() - (STALE_AFTER_MINUTES + 1) * 60_000) })
+        .where(eq(uploads.key, tickets[1].key));
       expect((await ask()).status).toBe(201);
     } finally {
       await deleteTestCoupons(db, [own.id]);

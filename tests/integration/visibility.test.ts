@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, inArray } from 'drizzle-orm';
 import { coupons, users } from '../../db/schema';
-import type { Visibility } from '../../src/lib/coupons';
-import { maySee, visibleCoupons, type Viewer } from '../../src/lib/server/visibility';
+import type { Visibility } from '~/lib/coupons';
+import { maySee, visibleCoupons, type Viewer } from '~/lib/server/visibility';
 import { demo } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { everyVisibility, whoSeesWhat, type WhoSeesWhat } from '../support/who-sees-what';
@@ -19,7 +19,10 @@ afterAll(() => pool.end());
 /** Owners (existing demo accounts, for the foreign key); viewers need no row of their own. */
 const owners = {} as Record<'member' | 'instructor' | 'admin', string>;
 beforeAll(async () => {
-  const rows = await db.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, [demo.member, demo.instructor, demo.admin]));
+  const rows = await db
+    .select({ id: users.id, email: users.email })
+    .from(users)
+    .where(inArray(users.email, [demo.member, demo.instructor, demo.admin]));
   const idOf = (email: string) => rows.find((row) => row.email === email)!.id;
   Object.assign(owners, { member: idOf(demo.member), instructor: idOf(demo.instructor), admin: idOf(demo.admin) });
 });
@@ -41,11 +44,23 @@ async function seenBySql(): Promise<Map<WhoSeesWhat, Set<Visibility>>> {
         for (const visibility of everyVisibility) {
           const [{ id }] = await tx
             .insert(coupons)
-            .values({ ownerId, title: `Visibility check, ${visibility}`, layerKey: 'ti-grade-2', surfacePrep: 'ground', process: 'oven', temperatureC: 500, holdSeconds: 600, visibility })
+            .values({
+              ownerId,
+              title: `Visibility check, ${visibility}`,
+              layerKey: 'ti-grade-2',
+              surfacePrep: 'ground',
+              process: 'oven',
+              temperatureC: 500,
+              holdSeconds: 600,
+              visibility,
+            })
             .$returningId();
           ids.push(id);
         }
-        const rows = await tx.select({ visibility: coupons.visibility }).from(coupons).where(and(inArray(coupons.id, ids), visibleCoupons(viewerFor(row))));
+        const rows = await tx
+          .select({ visibility: coupons.visibility })
+          .from(coupons)
+          .where(and(inArray(coupons.id, ids), visibleCoupons(viewerFor(row))));
         seen.set(row, new Set(rows.map((found) => found.visibility)));
       }
       throw new RollBack();
@@ -63,14 +78,25 @@ describe('visibleCoupons on MariaDB', () => {
   });
 
   // Source: the hand-written table in tests/support/who-sees-what.ts.
-  it.each(whoSeesWhat.flatMap((row) => everyVisibility.map((visibility) => ({ row, visibility }))))('$row.viewer, a $visibility coupon: the SQL, the table and maySee agree', ({ row, visibility }) => {
-    const bySql = seen.get(row)!.has(visibility);
-    expect(bySql).toBe(row.sees[visibility]);
-    expect(bySql).toBe(maySee(viewerFor(row), { ownerId: ownerFor(row), visibility }));
-  });
+  it.each(whoSeesWhat.flatMap((row) => everyVisibility.map((visibility) => ({ row, visibility }))))(
+    '$row.viewer, a $visibility coupon: the SQL, the table and maySee agree',
+    ({ row, visibility }) => {
+      const bySql = seen.get(row)!.has(visibility);
+      expect(bySql).toBe(row.sees[visibility]);
+      expect(bySql).toBe(maySee(viewerFor(row), { ownerId: ownerFor(row), visibility }));
+    },
+  );
 
   it('left nothing behind', async () => {
-    const left = await db.select({ id: coupons.id }).from(coupons).where(inArray(coupons.title, everyVisibility.map((visibility) => `Visibility check, ${visibility}`)));
+    const left = await db
+      .select({ id: coupons.id })
+      .from(coupons)
+      .where(
+        inArray(
+          coupons.title,
+          everyVisibility.map((visibility) => `Visibility check, ${visibility}`),
+        ),
+      );
     expect(left).toEqual([]);
   });
 });

@@ -12,14 +12,19 @@ const mailDir = () => {
 export async function mailTo(to: string): Promise<ParsedMail[]> {
   let files: string[] = [];
   try {
-    files = readdirSync(mailDir()).filter((name) => name.endsWith('.eml')).sort();
+    files = readdirSync(mailDir())
+      .filter((name) => name.endsWith('.eml'))
+      .sort();
   } catch {
     return [];
   }
   const messages: ParsedMail[] = [];
   for (const file of files) {
     const mail = await simpleParser(readFileSync(path.join(mailDir(), file)));
-    const recipients = [mail.to].flat().flatMap((address) => address?.value ?? []).map((value) => value.address?.toLowerCase());
+    const recipients = [mail.to]
+      .flat()
+      .flatMap((address) => address?.value ?? [])
+      .map((value) => value.address?.toLowerCase());
     if (recipients.includes(to.toLowerCase())) messages.push(mail);
   }
   return messages;
@@ -61,14 +66,19 @@ export interface CapturedMail {
 export async function mailMentioning(fragment: string): Promise<CapturedMail[]> {
   let files: string[] = [];
   try {
-    files = readdirSync(mailDir()).filter((name) => name.endsWith('.eml')).sort();
+    files = readdirSync(mailDir())
+      .filter((name) => name.endsWith('.eml'))
+      .sort();
   } catch {
     return [];
   }
   const found: CapturedMail[] = [];
   for (const file of files) {
     const mail = await simpleParser(readFileSync(path.join(mailDir(), file)));
-    const to = [mail.to].flat().flatMap((address) => address?.value ?? []).map((value) => value.address ?? '');
+    const to = [mail.to]
+      .flat()
+      .flatMap((address) => address?.value ?? [])
+      .map((value) => value.address ?? '');
     if (to.some((address) => address.includes(fragment))) found.push({ file, to, subject: mail.subject ?? '', mail });
   }
   return found;

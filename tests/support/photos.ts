@@ -4,7 +4,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { expect } from 'vitest';
 import type { Database } from '../../db/client';
 import { alloys, couponLayers, coupons, users } from '../../db/schema';
-import type { PhotoView, RegionInput, UploadTicket } from '../../src/lib/photos';
+import type { PhotoView, RegionInput, UploadTicket } from '~/lib/photos';
 import { api, type Jar } from './app';
 
 export async function userIdOf(db: Database, email: string): Promise<string> {
@@ -25,7 +25,16 @@ export async function insertCoupon(db: Database, ownerEmail: string, layers: str
   const alloyRows = await db.select({ id: alloys.id, slug: alloys.slug }).from(alloys).where(inArray(alloys.slug, layers));
   const [{ id }] = await db
     .insert(coupons)
-    .values({ ownerId, title: `Photo test ${layers.join(' / ')}`, layerKey: [...layers].sort().join('+'), surfacePrep: 'ground', process: 'oven', temperatureC: 560, holdSeconds: 1800, visibility })
+    .values({
+      ownerId,
+      title: `Photo test ${layers.join(' / ')}`,
+      layerKey: [...layers].sort().join('+'),
+      surfacePrep: 'ground',
+      process: 'oven',
+      temperatureC: 560,
+      holdSeconds: 1800,
+      visibility,
+    })
     .$returningId();
   const layerIds: number[] = [];
   for (const [position, slug] of layers.entries()) {
@@ -66,7 +75,12 @@ export async function putToStorage(ticket: UploadTicket, bytes: Uint8Array): Pro
 export const attach = (jar: Jar | undefined, couponId: number, body: unknown) => api(`/api/coupons/${couponId}/photos`, { jar, json: body });
 
 /** The whole path for one photo; returns the attach response. */
-export async function uploadPhoto(jar: Jar, couponId: number, bytes: Uint8Array, options: { contentType?: string; regions?: RegionInput[]; filename?: string } = {}) {
+export async function uploadPhoto(
+  jar: Jar,
+  couponId: number,
+  bytes: Uint8Array,
+  options: { contentType?: string; regions?: RegionInput[]; filename?: string } = {},
+) {
   const contentType = options.contentType ?? 'image/jpeg';
   const ticket = await presign(jar, options.filename ?? 'coupon.jpg', contentType, Math.max(1, bytes.length));
   await putToStorage(ticket, bytes);

@@ -1,5 +1,5 @@
-import type { RoleName } from '../../src/lib/account';
-import type { Visibility } from '../../src/lib/coupons';
+import type { RoleName } from '~/lib/account';
+import type { Visibility } from '~/lib/coupons';
 
 /**
  * Who may see and who may change a coupon, written out by hand for every kind of viewer.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ConfigError, LOCAL_DATABASE_URL, readConfig } from '../../src/lib/server/config';
+import { ConfigError, LOCAL_DATABASE_URL, readConfig } from '~/lib/server/config';
 
 const secret = 'x'.repeat(43);
 

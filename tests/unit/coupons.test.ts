@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { couponInputSchema, describeHeat } from '../../src/lib/coupons';
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../src/lib/units';
-import { emptyForm, fieldOf, payloadOf, switchUnit, type FormState } from '../../src/components/coupons/coupon-form-state';
+import { couponInputSchema, describeHeat } from '~/lib/coupons';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '~/lib/units';
+import { emptyForm, fieldOf, payloadOf, switchUnit, type FormState } from '~/components/coupons/coupon-form-state';
 
 const valid: FormState = {
   ...emptyForm,

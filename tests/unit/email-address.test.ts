@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { emailSchema, normaliseEmail } from '../../src/lib/email-address';
+import { emailSchema, normaliseEmail } from '~/lib/email-address';
 
 /**
  * The one rule every sign-in route compares e-mail addresses by: trimmed, lower-cased, printable

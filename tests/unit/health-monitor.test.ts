@@ -2,7 +2,7 @@
 // moves: answers come from a result a few seconds old, concurrent requests share one check, and
 // the mail server is asked at most once per interval (and never while a request waits).
 import { describe, expect, it } from 'vitest';
-import { createHealthMonitor, type HealthChecks } from '../../src/lib/server/health';
+import { createHealthMonitor, type HealthChecks } from '~/lib/server/health';
 
 function setUp(overrides: Partial<HealthChecks> = {}) {
   const calls = { db: 0, storage: 0, mail: 0 };

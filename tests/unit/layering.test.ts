@@ -26,7 +26,11 @@ describe('what db/ may import', () => {
   });
 
   it('nothing under db/ imports from src/ or scripts/', () => {
-    const reaching = sourceFiles('db').flatMap((file) => importsOf(file).filter((target) => /^(src|scripts)\//.test(target)).map((target) => `${file} → ${target}`));
+    const reaching = sourceFiles('db').flatMap((file) =>
+      importsOf(file)
+        .filter((target) => /^(src|scripts)\//.test(target))
+        .map((target) => `${file} → ${target}`),
+    );
     expect(reaching).toEqual([]);
   });
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { applyMatrix, invertMatrix, multiplyMatrices, quadraticForm, type Matrix3 } from '../../src/lib/matrix';
-import { BRADFORD } from '../../src/lib/colour';
+import { applyMatrix, invertMatrix, multiplyMatrices, quadraticForm, type Matrix3 } from '~/lib/matrix';
+import { BRADFORD } from '~/lib/colour';
 
 describe('the inverse of a small matrix', () => {
   // Source: B. Lindbloom, "Chromatic Adaptation", the inverse Bradford matrix to seven decimals (from memory).
@@ -54,7 +54,23 @@ describe('the inverse of a small matrix', () => {
 
   // Source: xᵀMx written out for a 2×2 matrix, a·x₀² + (b + c)·x₀x₁ + d·x₁².
   it('the quadratic form and the product with a vector', () => {
-    expect(quadraticForm([[2, 1], [3, 4]], [5, 7])).toBe(2 * 25 + 4 * 35 + 4 * 49);
-    expect(applyMatrix([[2, 1], [3, 4]], [5, 7])).toEqual([17, 43]);
+    expect(
+      quadraticForm(
+        [
+          [2, 1],
+          [3, 4],
+        ],
+        [5, 7],
+      ),
+    ).toBe(2 * 25 + 4 * 35 + 4 * 49);
+    expect(
+      applyMatrix(
+        [
+          [2, 1],
+          [3, 4],
+        ],
+        [5, 7],
+      ),
+    ).toEqual([17, 43]);
   });
 });

@@ -14,10 +14,10 @@
 //   not text at all.
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { textFault } from '../../src/lib/text';
-import { couponInputSchema } from '../../src/lib/coupons';
-import { nameSchema, signUpSchema } from '../../src/lib/account';
-import { uploadRequestSchema } from '../../src/lib/photo-requests';
+import { textFault } from '~/lib/text';
+import { couponInputSchema } from '~/lib/coupons';
+import { nameSchema, signUpSchema } from '~/lib/account';
+import { uploadRequestSchema } from '~/lib/photo-requests';
 
 const refusedEverywhere: [string, string][] = [
   ['NUL', 'Straw\u0000 test'],

@@ -1,21 +1,11 @@
 import { useEffect, useMemo, useState, type ReactNode } from 'react';
 import { useController, useWatch, type FieldPath } from 'react-hook-form';
-import {
-  MAX_LAYERS,
-  atmospheres,
-  coolings,
-  labels,
-  processes,
-  surfacePreparations,
-  temperatureMethods,
-  visibilities,
-  type CouponInput,
-} from '../../lib/coupons';
-import { callApi } from '../api-client';
-import { useRequestForm } from '../request-form';
-import { FieldError } from '../ui/FieldError';
-import { optionsOf, SelectField } from '../ui/SelectField';
-import { TextField } from '../ui/TextField';
+import { MAX_LAYERS, atmospheres, coolings, labels, processes, surfacePreparations, temperatureMethods, visibilities, type CouponInput } from '~/lib/coupons';
+import { callApi } from '~/components/api-client';
+import { useRequestForm } from '~/components/request-form';
+import { FieldError } from '~/components/ui/FieldError';
+import { optionsOf, SelectField } from '~/components/ui/SelectField';
+import { TextField } from '~/components/ui/TextField';
 import { couponResolver, emptyForm, fieldOf, formFromCoupon, switchUnit, type FormState } from './coupon-form-state';
 
 interface AlloyOption {
@@ -35,10 +25,16 @@ interface Props {
 const draftKey = (couponId?: number) => `oxbloom:coupon-draft:${couponId ?? 'new'}`;
 
 export default function CouponForm({ alloys, couponId, initial, caution }: Props) {
-  const { control, handleSubmit, reset, setValue, getValues, setError, watch, formState } = useRequestForm(initial ? formFromCoupon(initial) : emptyForm, couponResolver);
+  const { control, handleSubmit, reset, setValue, getValues, setError, watch, formState } = useRequestForm(
+    initial ? formFromCoupon(initial) : emptyForm,
+    couponResolver,
+  );
   const [notice, setNotice] = useState<string>();
   const [restored, setRestored] = useState(false);
-  const [process, atmosphere, surfacePrep, layers, temperatureUnit] = useWatch({ control, name: ['process', 'atmosphere', 'surfacePrep', 'layers', 'temperatureUnit'] });
+  const [process, atmosphere, surfacePrep, layers, temperatureUnit] = useWatch({
+    control,
+    name: ['process', 'atmosphere', 'surfacePrep', 'layers', 'temperatureUnit'],
+  });
   const notes = useController({ control, name: 'notes' });
   const visibility = useController({ control, name: 'visibility' }).field;
 
@@ -47,6 +43,8 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
     if (!saved) return;
     try {
       reset({ ...emptyForm, ...(JSON.parse(saved) as FormState) });
+      // The draft lives in localStorage, which can only be read once the island runs in the browser.
+      // eslint-disable-next-line react-hooks/set-state-in-effect
       setRestored(true);
     } catch {
       localStorage.removeItem(draftKey(couponId));
@@ -80,7 +78,10 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
 
   const save = handleSubmit(
     async (payload) => {
-      const answer = await callApi<{ id?: number }>(couponId ? `/api/coupons/${couponId}` : '/api/coupons', { method: couponId ? 'PATCH' : 'POST', body: payload });
+      const answer = await callApi<{ id?: number }>(couponId ? `/api/coupons/${couponId}` : '/api/coupons', {
+        method: couponId ? 'PATCH' : 'POST',
+        body: payload,
+      });
       if (!answer.ok) {
         if (answer.field) setError(fieldOf(answer.field.split('.')) as FieldPath<FormState>, { message: answer.message });
         setNotice(
@@ -143,7 +144,17 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
                 />
               </div>
               {layers.length > 1 && (
-                <button type="button" className="btn" onClick={() => setValue('layers', layers.filter((_, at) => at !== index))} aria-label={`Remove layer ${index + 1}`}>
+                <button
+                  type="button"
+                  className="btn"
+                  onClick={() =>
+                    setValue(
+                      'layers',
+                      layers.filter((_, at) => at !== index),
+                    )
+                  }
+                  aria-label={`Remove layer ${index + 1}`}
+                >
                   Remove
                 </button>
               )}
@@ -157,7 +168,13 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
           )}
         </fieldset>
         <div className="grid gap-4 sm:grid-cols-2">
-          <SelectField control={control} name="surfacePrep" label="Surface preparation" placeholder="Choose…" options={optionsOf(surfacePreparations, labels.surfacePrep)} />
+          <SelectField
+            control={control}
+            name="surfacePrep"
+            label="Surface preparation"
+            placeholder="Choose…"
+            options={optionsOf(surfacePreparations, labels.surfacePrep)}
+          />
           {surfacePrep === 'ground' && <TextField control={control} name="surfaceGrit" label="Grit" inputMode="numeric" hint="Last grit, e.g. 400." />}
         </div>
       </Section>
@@ -179,14 +196,26 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
               unit={
                 <div role="group" aria-label="Temperature unit" className="flex shrink-0">
                   {(['C', 'F'] as const).map((unit) => (
-                    <button key={unit} type="button" className={`btn px-3 ${temperatureUnit === unit ? 'btn-primary' : ''}`} aria-pressed={temperatureUnit === unit} onClick={() => switchTo(unit)}>
+                    <button
+                      key={unit}
+                      type="button"
+                      className={`btn px-3 ${temperatureUnit === unit ? 'btn-primary' : ''}`}
+                      aria-pressed={temperatureUnit === unit}
+                      onClick={() => switchTo(unit)}
+                    >
                       °{unit}
                     </button>
                   ))}
                 </div>
               }
             />
-            <SelectField control={control} name="temperatureMethod" label="Measured by" placeholder="Choose…" options={optionsOf(temperatureMethods, labels.temperatureMethod)} />
+            <SelectField
+              control={control}
+              name="temperatureMethod"
+              label="Measured by"
+              placeholder="Choose…"
+              options={optionsOf(temperatureMethods, labels.temperatureMethod)}
+            />
             <TextField control={control} name="holdMinutes" label="Hold time (minutes)" inputMode="decimal" hint="Time at temperature." />
             <SelectField control={control} name="cooling" label="Cooling" placeholder="Choose…" options={optionsOf(coolings, labels.cooling)} />
           </div>

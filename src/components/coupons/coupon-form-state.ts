@@ -1,6 +1,6 @@
-import { couponInputSchema, type CouponInput } from '../../lib/coupons';
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/units';
-import { requestResolver } from '../request-form';
+import { couponInputSchema, type CouponInput } from '~/lib/coupons';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '~/lib/units';
+import { requestResolver } from '~/components/request-form';
 
 /** What the coupon form holds while typing: numbers as typed text, the temperature in the chosen unit. */
 export interface FormState {

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { PhotoLayer, PhotoView } from '../../lib/photos';
+import type { PhotoLayer, PhotoView } from '~/lib/photos';
 import { removePhoto, saveRegions, StepFailed } from './photo-api';
 import RegionEditor, { marksOf, regionsOf, type Marks } from './RegionEditor';
 import SwatchGroups from './SwatchGroups';
@@ -51,7 +51,10 @@ export default function PhotoCard({ photo, layers, editable, onChanged, onDelete
   }
 
   return (
-    <article className="grid gap-4 border-t border-ash-200 pt-4 first:border-t-0 first:pt-0 @4xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]" aria-label={`Photo ${photo.id}`}>
+    <article
+      className="grid gap-4 border-t border-ash-200 pt-4 first:border-t-0 first:pt-0 @4xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]"
+      aria-label={`Photo ${photo.id}`}
+    >
       <div className="space-y-2">
         <RegionEditor photo={photo} layers={layers} marks={marks} editable={editable && busy === null} onChange={setMarks} />
         <p className="text-xs text-ash-600">{[facts(photo), `${photo.width} × ${photo.height} px`].filter(Boolean).join(' · ')}</p>

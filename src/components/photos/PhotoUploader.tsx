@@ -1,5 +1,14 @@
 import { useEffect, useRef, useState, type DragEvent } from 'react';
-import { declaredContentType, formatBytes, isPhotoContentType, MAX_UPLOAD_BYTES, MAX_UPLOAD_MEGABYTES, TOO_BIG, UNACCEPTED_TYPE, type PhotoView } from '../../lib/photos';
+import {
+  declaredContentType,
+  formatBytes,
+  isPhotoContentType,
+  MAX_UPLOAD_BYTES,
+  MAX_UPLOAD_MEGABYTES,
+  TOO_BIG,
+  UNACCEPTED_TYPE,
+  type PhotoView,
+} from '~/lib/photos';
 import { askForUpload, attachUpload, sendFile, StepFailed } from './photo-api';
 
 type Status = 'queued' | 'sending' | 'measuring' | 'done' | 'failed' | 'cancelled';
@@ -47,7 +56,10 @@ function Bar({ item }: { item: Item }) {
       aria-valuenow={measuring ? undefined : percent}
       aria-valuetext={measuring ? 'Uploaded; measuring colours' : `${percent} %`}
     >
-      <div className={`h-full rounded-full bg-oxide-700 transition-[width] duration-200 ${measuring ? 'animate-pulse' : ''}`} style={{ width: `${measuring ? 100 : percent}%` }} />
+      <div
+        className={`h-full rounded-full bg-oxide-700 transition-[width] duration-200 ${measuring ? 'animate-pulse' : ''}`}
+        style={{ width: `${measuring ? 100 : percent}%` }}
+      />
     </div>
   );
 }
@@ -96,6 +108,8 @@ export default function PhotoUploader({ couponId, onAdded }: { couponId: number;
       patch(item.id, { status: 'sending', progress: 0, message: undefined });
       void run(item);
     }
+    // The queue advances when the list changes; `run` is made anew each render and must not restart it.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [items]);
 
   function add(files: FileList | File[]) {

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { PhotoLayer, PhotoView } from '../../lib/photos';
+import type { PhotoLayer, PhotoView } from '~/lib/photos';
 import PhotoCard from './PhotoCard';
 import PhotoUploader from './PhotoUploader';
 

@@ -1,5 +1,5 @@
 import { useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
-import { layerLabel, type PhotoLayer, type PhotoView, type Rectangle, type RegionInput } from '../../lib/photos';
+import { layerLabel, type PhotoLayer, type PhotoView, type Rectangle, type RegionInput } from '~/lib/photos';
 import { isBigEnough, keyStep, moved, placement, resized, spanned, toPhotoPoint, type Point } from './region-geometry';
 
 /** A region being edited: which layer (or the grey card) it marks, and where. */
@@ -55,7 +55,12 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
   const size = { width: photo.width, height: photo.height };
 
   const kinds = [
-    ...layers.map((layer, index) => ({ mark: layerMark(layer.id), label: layerLabel(layer), short: `${layer.position + 1}`, colour: OUTLINES[index % OUTLINES.length] })),
+    ...layers.map((layer, index) => ({
+      mark: layerMark(layer.id),
+      label: layerLabel(layer),
+      short: `${layer.position + 1}`,
+      colour: OUTLINES[index % OUTLINES.length],
+    })),
     { mark: GREY, label: 'Grey card', short: 'Grey', colour: '#ffffff' },
   ];
   const kindOf = (mark: string) => kinds.find((kind) => kind.mark === mark);
@@ -172,9 +177,16 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
               tabIndex={editable ? 0 : undefined}
               onKeyDown={editable ? (event) => onKeyDown(event, mark) : undefined}
               className={`absolute ${editable ? 'cursor-move' : ''}`}
-              style={{ ...placement(rectangle, size), border: `2px ${mark === GREY ? 'dashed' : 'solid'} ${kind.colour}`, boxShadow: '0 0 0 1px rgb(0 0 0 / 0.7), inset 0 0 0 1px rgb(0 0 0 / 0.7)' }}
+              style={{
+                ...placement(rectangle, size),
+                border: `2px ${mark === GREY ? 'dashed' : 'solid'} ${kind.colour}`,
+                boxShadow: '0 0 0 1px rgb(0 0 0 / 0.7), inset 0 0 0 1px rgb(0 0 0 / 0.7)',
+              }}
             >
-              <span className="absolute left-0 top-0 flex items-center gap-1 px-1 text-xs font-semibold leading-5 text-ash-900" style={{ background: kind.colour }}>
+              <span
+                className="absolute left-0 top-0 flex items-center gap-1 px-1 text-xs font-semibold leading-5 text-ash-900"
+                style={{ background: kind.colour }}
+              >
                 {kind.short}
                 {editable && (
                   <button type="button" className="leading-none" aria-label={`Delete the ${kind.label} region`} onClick={() => remove(mark)}>
@@ -182,14 +194,22 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
                   </button>
                 )}
               </span>
-              {editable && <span data-handle="resize" className="absolute -bottom-2 -right-2 h-4 w-4 cursor-nwse-resize rounded-full border-2 border-ash-900" style={{ background: kind.colour }} aria-hidden="true" />}
+              {editable && (
+                <span
+                  data-handle="resize"
+                  className="absolute -bottom-2 -right-2 h-4 w-4 cursor-nwse-resize rounded-full border-2 border-ash-900"
+                  style={{ background: kind.colour }}
+                  aria-hidden="true"
+                />
+              )}
             </div>
           );
         })}
       </div>
       {editable && (
         <p className="field-hint">
-          Drag on the photo to mark the chosen layer; drag a rectangle to move it, its corner to resize it. With the keyboard: arrows move a rectangle, Shift and arrows resize it, Delete removes it.
+          Drag on the photo to mark the chosen layer; drag a rectangle to move it, its corner to resize it. With the keyboard: arrows move a rectangle, Shift
+          and arrows resize it, Delete removes it.
         </p>
       )}
     </div>

@@ -1,4 +1,4 @@
-import { formatLab, formatShare, layerLabel, type PhotoLayer, type PhotoView, type SwatchView } from '../../lib/photos';
+import { formatLab, formatShare, layerLabel, type PhotoLayer, type PhotoView, type SwatchView } from '~/lib/photos';
 
 /** A swatch as a chip (the look of ui/SwatchChip.astro): its colour, share, hex and L*a*b*. */
 function Chip({ swatch, label }: { swatch: SwatchView; label: string }) {
@@ -49,7 +49,8 @@ export default function SwatchGroups({ photo, layers }: { photo: PhotoView; laye
         );
       })}
       <p className="text-xs text-ash-600">
-        {photo.whiteBalanced ? 'White-balanced from the grey card.' : 'Not white-balanced: mark a grey card to remove the light’s colour cast.'} Colours are CIELAB (D65); screen and print show them only approximately.
+        {photo.whiteBalanced ? 'White-balanced from the grey card.' : 'Not white-balanced: mark a grey card to remove the light’s colour cast.'} Colours are
+        CIELAB (D65); screen and print show them only approximately.
       </p>
     </div>
   );

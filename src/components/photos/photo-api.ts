@@ -1,5 +1,5 @@
-import { declaredContentType, type PhotoView, type RegionInput, type UploadTicket } from '../../lib/photos';
-import { callApi } from '../api-client';
+import { declaredContentType, type PhotoView, type RegionInput, type UploadTicket } from '~/lib/photos';
+import { callApi } from '~/components/api-client';
 
 /** The browser's side of the photo routes: JSON calls, and the PUT straight to storage with progress. */
 

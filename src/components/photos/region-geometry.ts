@@ -1,4 +1,4 @@
-import type { Rectangle } from '../../lib/photos';
+import type { Rectangle } from '~/lib/photos';
 
 /**
  * The region editor's geometry, pure: rectangles are kept in pixels of the upright full-size

@@ -22,7 +22,13 @@ export function BasisNote({ basis, couponCount, signedIn, subject }: Props) {
     <p className="text-sm" data-basis="reference">
       {prefix}
       {from} reference data only (published growth rates, so the band is wide).{' '}
-      {signedIn ? 'Your library has too few coupons with swatches of this alloy to fit it yet.' : <><a href="/sign-in?callbackUrl=/heat-planner">Sign in</a> to use the library's coupons.</>}
+      {signedIn ? (
+        'Your library has too few coupons with swatches of this alloy to fit it yet.'
+      ) : (
+        <>
+          <a href="/sign-in?callbackUrl=/heat-planner">Sign in</a> to use the library's coupons.
+        </>
+      )}
     </p>
   );
 }

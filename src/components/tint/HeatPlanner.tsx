@@ -1,13 +1,13 @@
 import { useState } from 'react';
 import { useController, useWatch } from 'react-hook-form';
-import type { AlloyOptionGroup } from '../../lib/tint/alloy-options';
-import type { Prediction } from '../../lib/tint/predict';
-import { callApi } from '../api-client';
-import { useRequestForm } from '../request-form';
-import { FieldError } from '../ui/FieldError';
-import { NumberField } from '../ui/NumberField';
-import { SelectField } from '../ui/SelectField';
-import { UnitSwitch } from '../ui/UnitSwitch';
+import type { AlloyOptionGroup } from '~/lib/tint/alloy-options';
+import type { Prediction } from '~/lib/tint/predict';
+import { callApi } from '~/components/api-client';
+import { useRequestForm } from '~/components/request-form';
+import { FieldError } from '~/components/ui/FieldError';
+import { NumberField } from '~/components/ui/NumberField';
+import { SelectField } from '~/components/ui/SelectField';
+import { UnitSwitch } from '~/components/ui/UnitSwitch';
 import { alloyChoices, heatFieldOf, heatResolver, showRefusal, usableProcess, type Atmosphere } from './planner-forms';
 import { PlannerForm } from './PlannerForm';
 import { PredictionResult } from './PredictionResult';
@@ -54,7 +54,9 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
   const answer = result ? (
     <PredictionResult prediction={result.prediction} planned={result.planned} signedIn={signedIn} />
   ) : (
-    <p className="card text-ash-600">Choose an alloy and a heat, then predict: the band of tints, which data it rests on and the cautions that apply appear here.</p>
+    <p className="card text-ash-600">
+      Choose an alloy and a heat, then predict: the band of tints, which data it rests on and the cautions that apply appear here.
+    </p>
   );
 
   return (
@@ -79,7 +81,9 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
           ))}
         </div>
         {(!canHeat || !canAnodize) && (
-          <p className="field-hint">{chosen?.name} has {canHeat ? 'no anodizing' : 'no heat-growth'} model yet.</p>
+          <p className="field-hint">
+            {chosen?.name} has {canHeat ? 'no anodizing' : 'no heat-growth'} model yet.
+          </p>
         )}
         <FieldError id="planner-process-error" message={formState.errors.process?.message} />
       </fieldset>
@@ -91,10 +95,24 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
             name="temperature"
             id="planner-temperature"
             label="Temperature"
-            unit={<UnitSwitch control={control} name="unit" radioName="planner-unit" onSwitch={(to, from) => setValue('temperature', convertTyped(getValues('temperature'), from, to))} />}
+            unit={
+              <UnitSwitch
+                control={control}
+                name="unit"
+                radioName="planner-unit"
+                onSwitch={(to, from) => setValue('temperature', convertTyped(getValues('temperature'), from, to))}
+              />
+            }
             hint="Metal temperature at the hold."
           />
-          <NumberField control={control} name="holdMinutes" id="planner-hold" label="Hold time" unit={<span className="text-sm text-ash-600">min</span>} min={0} />
+          <NumberField
+            control={control}
+            name="holdMinutes"
+            id="planner-hold"
+            label="Hold time"
+            unit={<span className="text-sm text-ash-600">min</span>}
+            min={0}
+          />
           <SelectField control={control} name="atmosphere" id="planner-atmosphere" label="Atmosphere" options={atmosphereChoices} />
         </>
       ) : (

@@ -1,13 +1,13 @@
 import { useState } from 'react';
 import { useController, useWatch } from 'react-hook-form';
-import type { AlloyOptionGroup } from '../../lib/tint/alloy-options';
-import type { PairSuggestion } from '../../lib/tint/plan-pair';
-import { callApi } from '../api-client';
-import { useRequestForm } from '../request-form';
-import { RangeField } from '../ui/RangeField';
-import { SelectField } from '../ui/SelectField';
-import { TextField } from '../ui/TextField';
-import { UnitSwitch } from '../ui/UnitSwitch';
+import type { AlloyOptionGroup } from '~/lib/tint/alloy-options';
+import type { PairSuggestion } from '~/lib/tint/plan-pair';
+import { callApi } from '~/components/api-client';
+import { useRequestForm } from '~/components/request-form';
+import { RangeField } from '~/components/ui/RangeField';
+import { SelectField } from '~/components/ui/SelectField';
+import { TextField } from '~/components/ui/TextField';
+import { UnitSwitch } from '~/components/ui/UnitSwitch';
 import { BasisNote } from './BasisNote';
 import { ColourChip } from './ColourChip';
 import { alloyChoices, pairFieldOf, pairResolver, showRefusal, type Goal } from './planner-forms';
@@ -62,15 +62,21 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
         <BasisNote subject="Both layers" basis="reference" couponCount={0} signedIn={signedIn} />
       ) : (
         answer.result.bases.map((basis) => (
-          <BasisNote key={basis.alloy} subject={names.get(basis.alloy) ?? basis.alloy} basis={basis.basis} couponCount={basis.couponCount} signedIn={signedIn} />
+          <BasisNote
+            key={basis.alloy}
+            subject={names.get(basis.alloy) ?? basis.alloy}
+            basis={basis.basis}
+            couponCount={basis.couponCount}
+            signedIn={signedIn}
+          />
         ))
       )}
       {answer.result.suggestions.length === 0 ? (
         <p>No heat in these ranges gives a usable pair. Widen the ranges.</p>
       ) : alike(answer) ? (
         <p className="alert">
-          On the data available these two alloys colour alike in the same heat, so no heat sets them apart. Library
-          coupons of both alloys can tell them apart once there are enough.
+          On the data available these two alloys colour alike in the same heat, so no heat sets them apart. Library coupons of both alloys can tell them apart
+          once there are enough.
         </p>
       ) : (
         <ol className="grid gap-3">
@@ -84,7 +90,12 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
               </p>
               <div className="flex flex-wrap gap-2">
                 {suggestion.layers.map((layer) => (
-                  <ColourChip key={layer.alloy} hex={layer.hex} label={`${names.get(layer.alloy) ?? layer.alloy}: ${layer.name}`} detail={`${layer.thicknessNm} nm · ${layer.hex}`} />
+                  <ColourChip
+                    key={layer.alloy}
+                    hex={layer.hex}
+                    label={`${names.get(layer.alloy) ?? layer.alloy}: ${layer.name}`}
+                    detail={`${layer.thicknessNm} nm · ${layer.hex}`}
+                  />
                 ))}
               </div>
             </li>
@@ -93,7 +104,9 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
       )}
     </section>
   ) : (
-    <p className="card text-ash-600">Pick the two alloys of a laminate billet: the planner searches temperature and hold time for one heat that colours both layers the way you want.</p>
+    <p className="card text-ash-600">
+      Pick the two alloys of a laminate billet: the planner searches temperature and hold time for one heat that colours both layers the way you want.
+    </p>
   );
 
   return (
@@ -118,13 +131,33 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
       {goal === 'target' && (
         <div className="grid grid-cols-2 gap-4">
           {([0, 1] as const).map((i) => (
-            <TextField key={i} control={control} name={`targets.${i}`} id={`pair-target-${i}`} label={i === 0 ? 'First layer colour' : 'Second layer colour'} type="color" className="input h-11 p-1" />
+            <TextField
+              key={i}
+              control={control}
+              name={`targets.${i}`}
+              id={`pair-target-${i}`}
+              label={i === 0 ? 'First layer colour' : 'Second layer colour'}
+              type="color"
+              className="input h-11 p-1"
+            />
           ))}
         </div>
       )}
 
-      <RangeField control={control} name="temperature" id="pair-temperature" legend="Temperature range" unit={<UnitSwitch control={control} name="unit" radioName="pair-unit" onSwitch={convertRange} />} />
-      <RangeField control={control} name="hold" id="pair-hold" legend="Hold time range" unit={<span className="w-[5.5rem] shrink-0 text-sm text-ash-600">min</span>} />
+      <RangeField
+        control={control}
+        name="temperature"
+        id="pair-temperature"
+        legend="Temperature range"
+        unit={<UnitSwitch control={control} name="unit" radioName="pair-unit" onSwitch={convertRange} />}
+      />
+      <RangeField
+        control={control}
+        name="hold"
+        id="pair-hold"
+        legend="Hold time range"
+        unit={<span className="w-[5.5rem] shrink-0 text-sm text-ash-600">min</span>}
+      />
       <p className="field-hint -mt-2">Leave the ranges blank for the temperatures both alloys' data cover and holds of 1–120 min.</p>
     </PlannerForm>
   );

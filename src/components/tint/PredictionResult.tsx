@@ -1,4 +1,4 @@
-import type { Prediction } from '../../lib/tint/predict';
+import type { Prediction } from '~/lib/tint/predict';
 import { BasisNote } from './BasisNote';
 import { ColourChip } from './ColourChip';
 
@@ -27,7 +27,11 @@ export function PredictionResult({ prediction, planned, signedIn }: Props) {
         </h2>
       </div>
 
-      <div className="flex h-12 overflow-hidden rounded-md shadow-[inset_0_0_0_1px_rgb(0_0_0/0.15)]" role="img" aria-label={`Band of tints from ${first.name} to ${last.name}`}>
+      <div
+        className="flex h-12 overflow-hidden rounded-md shadow-[inset_0_0_0_1px_rgb(0_0_0/0.15)]"
+        role="img"
+        aria-label={`Band of tints from ${first.name} to ${last.name}`}
+      >
         {band.map((step) => (
           <span key={step.thicknessNm} className="flex-1" style={{ background: step.hex }} title={`${step.thicknessNm} nm, ${step.name}`} />
         ))}
@@ -36,7 +40,13 @@ export function PredictionResult({ prediction, planned, signedIn }: Props) {
       <ul className="grid gap-2 sm:grid-cols-3" aria-label="The band's ends and middle">
         {ends.map((end) => (
           <li key={end.key} className="grid gap-1">
-            <span className={end.key === 'mid' ? 'text-xs font-semibold tracking-wide text-ash-900 uppercase' : 'text-xs font-semibold tracking-wide text-ash-600 uppercase'}>{end.title}</span>
+            <span
+              className={
+                end.key === 'mid' ? 'text-xs font-semibold tracking-wide text-ash-900 uppercase' : 'text-xs font-semibold tracking-wide text-ash-600 uppercase'
+              }
+            >
+              {end.title}
+            </span>
             <ColourChip hex={end.hex} label={end.name} detail={`${end.nm} nm · ${end.hex}`} />
           </li>
         ))}

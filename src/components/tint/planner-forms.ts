@@ -1,10 +1,10 @@
 import type { FieldPath, FieldValues, UseFormSetError } from 'react-hook-form';
-import type { AlloyOption, AlloyOptionGroup } from '../../lib/tint/alloy-options';
-import { planPairRequestSchema, predictRequestSchema } from '../../lib/tint/planner-requests';
-import type { ApiFailure } from '../api-client';
-import { asTheApiSays, requestResolver } from '../request-form';
-import type { OptionGroup } from '../ui/SelectField';
-import type { TemperatureUnit } from '../ui/UnitSwitch';
+import type { AlloyOption, AlloyOptionGroup } from '~/lib/tint/alloy-options';
+import { planPairRequestSchema, predictRequestSchema } from '~/lib/tint/planner-requests';
+import type { ApiFailure } from '~/components/api-client';
+import { asTheApiSays, requestResolver } from '~/components/request-form';
+import type { OptionGroup } from '~/components/ui/SelectField';
+import type { TemperatureUnit } from '~/components/ui/UnitSwitch';
 import { toCelsius } from './temperature';
 
 /** What the two planner forms hold (numbers as typed, temperatures in the chosen unit) and the requests they send. */
@@ -45,7 +45,13 @@ export function usableProcess(process: Process, alloy: AlloyOption | undefined):
 /** The body of POST /api/tint/predict. */
 export function predictRequestOf(form: HeatForm, alloy: AlloyOption | undefined) {
   return usableProcess(form.process, alloy) === 'heat'
-    ? { alloy: form.alloy, process: 'heat' as const, temperatureC: toCelsius(form.temperature, form.unit), holdMinutes: typedNumber(form.holdMinutes), atmosphere: form.atmosphere }
+    ? {
+        alloy: form.alloy,
+        process: 'heat' as const,
+        temperatureC: toCelsius(form.temperature, form.unit),
+        holdMinutes: typedNumber(form.holdMinutes),
+        atmosphere: form.atmosphere,
+      }
     : { alloy: form.alloy, process: 'anodize' as const, volts: typedNumber(form.volts) };
 }
 
@@ -56,7 +62,11 @@ export const heatFieldOf = (path: string) => (path === 'temperatureC' ? 'tempera
 export const heatResolver = (alloys: readonly AlloyOption[]) =>
   requestResolver({
     schema: predictRequestSchema,
-    requestOf: (form: HeatForm) => predictRequestOf(form, alloys.find((option) => option.slug === form.alloy)),
+    requestOf: (form: HeatForm) =>
+      predictRequestOf(
+        form,
+        alloys.find((option) => option.slug === form.alloy),
+      ),
     errorAt: (path, message) => ({ field: heatFieldOf(path), message: asTheApiSays(path, message) }),
     firstOnly: true,
   });

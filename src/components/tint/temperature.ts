@@ -1,5 +1,5 @@
-import { celsiusToFahrenheit, fahrenheitToCelsius } from '../../lib/units';
-import type { TemperatureUnit } from '../ui/UnitSwitch';
+import { celsiusToFahrenheit, fahrenheitToCelsius } from '~/lib/units';
+import type { TemperatureUnit } from '~/components/ui/UnitSwitch';
 
 /** A typed temperature in °C for the API (°C = (°F − 32)·5/9, NIST SP 811); blank stays blank. */
 export function toCelsius(value: string, unit: TemperatureUnit): number | null {

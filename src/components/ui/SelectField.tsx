@@ -14,7 +14,8 @@ export interface OptionGroup {
 }
 
 /** Options from a list of values and their labels. */
-export const optionsOf = <V extends string>(values: readonly V[], labels: Record<V, string>): Option[] => values.map((value) => ({ value, label: labels[value] }));
+export const optionsOf = <V extends string>(values: readonly V[], labels: Record<V, string>): Option[] =>
+  values.map((value) => ({ value, label: labels[value] }));
 
 type SelectProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id' | 'name' | 'value' | 'defaultValue' | 'onChange' | 'onBlur' | 'children'>;
 
@@ -32,7 +33,17 @@ interface Props<T extends FieldValues> extends BoundField<T>, SelectProps {
  * A labelled select bound to a form field, with its error. A field whose message is shown
  * elsewhere (one message under a list of selects) passes its own aria-invalid and aria-describedby.
  */
-export function SelectField<T extends FieldValues>({ control, name, id = name, label, placeholder, options = [], groups = [], className = 'input', ...select }: Props<T>) {
+export function SelectField<T extends FieldValues>({
+  control,
+  name,
+  id = name,
+  label,
+  placeholder,
+  options = [],
+  groups = [],
+  className = 'input',
+  ...select
+}: Props<T>) {
   const { field, fieldState } = useController({ control, name });
   const error = fieldState.error?.message;
   const option = ({ value, label }: Option) => (

@@ -19,14 +19,7 @@ export function TextField<T extends FieldValues>({ control, name, id = name, lab
   const { field, fieldState } = useController({ control, name });
   const error = fieldState.error?.message;
   const element = (
-    <input
-      {...field}
-      {...input}
-      className={className}
-      id={id}
-      aria-invalid={error ? true : undefined}
-      aria-describedby={describedBy(id, hint, error)}
-    />
+    <input {...field} {...input} className={className} id={id} aria-invalid={error ? true : undefined} aria-describedby={describedBy(id, hint, error)} />
   );
   return (
     <div className="field">

@@ -22,7 +22,10 @@ export function UnitSwitch<T extends FieldValues>({ control, name, radioName, on
     <fieldset className="flex shrink-0 overflow-hidden rounded-lg border border-ash-300 bg-white text-sm">
       <legend className="sr-only">Temperature unit</legend>
       {(['C', 'F'] as const).map((unit) => (
-        <label key={unit} className="flex min-h-11 min-w-11 cursor-pointer items-center justify-center px-2 has-[:checked]:bg-ash-800 has-[:checked]:text-white has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-temper-600">
+        <label
+          key={unit}
+          className="flex min-h-11 min-w-11 cursor-pointer items-center justify-center px-2 has-[:checked]:bg-ash-800 has-[:checked]:text-white has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-temper-600"
+        >
           <input className="sr-only" type="radio" name={radioName} value={unit} checked={field.value === unit} onChange={() => choose(unit)} />°{unit}
         </label>
       ))}

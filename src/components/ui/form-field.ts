@@ -3,6 +3,7 @@ import type { Control, FieldPath, FieldValues } from 'react-hook-form';
 /** A field component bound by name to a React Hook Form form. */
 export interface BoundField<T extends FieldValues> {
   // What the form's resolver makes of the values on submit doesn't matter to a field.
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
   control: Control<T, any, any>;
   name: FieldPath<T>;
 }

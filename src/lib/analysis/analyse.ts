@@ -1,9 +1,9 @@
-import type { Oklab } from '../colour';
-import type { Matrix3 } from '../matrix';
+import type { Oklab } from '~/lib/colour';
+import type { Matrix3 } from '~/lib/matrix';
 import { chooseCentres, FIT_SAMPLE_SIZE, samplePoints } from './choose-clusters';
 import { assignPoints } from './kmeans';
 import { collectPixels, type PixelImage } from './pixels';
-import { seededRandom } from '../random';
+import { seededRandom } from '~/lib/random';
 import { AnalysisInputError, clipRegion, wholeImage } from './regions';
 import {
   AnalysisOptionsSchema,

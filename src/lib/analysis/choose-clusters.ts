@@ -1,4 +1,4 @@
-import { deltaE2000, oklabToLab } from '../colour';
+import { deltaE2000, oklabToLab } from '~/lib/colour';
 import { assignPoints, fitKMeans, type Assignment } from './kmeans';
 
 /**

@@ -1,5 +1,5 @@
-import { linearRgbToOklab, SRGB8_TO_LINEAR } from '../colour';
-import { IDENTITY, type Matrix3 } from '../matrix';
+import { linearRgbToOklab, SRGB8_TO_LINEAR } from '~/lib/colour';
+import { IDENTITY, type Matrix3 } from '~/lib/matrix';
 import type { PixelCounts, Region } from './schemas';
 
 /** Raw 8-bit sRGB pixels, row-major, `channels` bytes per pixel (RGB or RGBA). */

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { LabSchema } from '../colour';
+import { LabSchema } from '~/lib/colour';
 
 /** Most colours reported per region. */
 export const MAX_SWATCHES = 5;

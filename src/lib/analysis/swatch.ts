@@ -1,4 +1,4 @@
-import { oklabToLab, oklabToRgb, rgbHex, type Oklab } from '../colour';
+import { oklabToLab, oklabToRgb, rgbHex, type Oklab } from '~/lib/colour';
 import type { Swatch } from './schemas';
 
 const round = (value: number, places: number) => {

@@ -1,5 +1,5 @@
-import { bradfordAdaptation, D65_WHITE, LINEAR_RGB_TO_XYZ, scalingAdaptation, XYZ_TO_LINEAR_RGB } from '../colour';
-import { applyMatrix, multiplyMatrices, type Matrix3, type Vector3 } from '../matrix';
+import { bradfordAdaptation, D65_WHITE, LINEAR_RGB_TO_XYZ, scalingAdaptation, XYZ_TO_LINEAR_RGB } from '~/lib/colour';
+import { applyMatrix, multiplyMatrices, type Matrix3, type Vector3 } from '~/lib/matrix';
 import type { Adaptation } from './schemas';
 
 /**

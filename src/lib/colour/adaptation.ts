@@ -2,7 +2,7 @@
  * Chromatic adaptation: the matrix that carries a colour seen under one white to the colour that
  * looks the same under another. Hand-written: culori has Bradford only between D65 and D50.
  */
-import { applyMatrix, diagonal, invertMatrix, multiplyMatrices, type Matrix3 } from '../matrix';
+import { applyMatrix, diagonal, invertMatrix, multiplyMatrices, type Matrix3 } from '~/lib/matrix';
 
 /**
  * The Bradford cone-response matrix (Lam 1985; the linearised form used for chromatic

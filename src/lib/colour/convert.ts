@@ -15,7 +15,7 @@ import {
   convertXyz65ToLab65,
   convertXyz65ToRgb,
 } from 'culori/fn';
-import { applyMatrix, matrixOf, type Matrix3, type Vector3 } from '../matrix';
+import { applyMatrix, matrixOf, type Matrix3, type Vector3 } from '~/lib/matrix';
 import type { Lab, Oklab, Xyz } from './types';
 
 /** Gamma-encoded sRGB channels, 0–1 inside the gamut (culori's object). */

@@ -1,4 +1,4 @@
-import type { Lab } from '../colour';
+import type { Lab } from '~/lib/colour';
 
 /**
  * A box in CIELAB that contains every colour within a CIEDE2000 distance `t` of `centre`, so

@@ -1,5 +1,5 @@
-import { formatDuration, formatNumber } from '../coupons';
-import { celsiusToFahrenheit } from '../units';
+import { formatDuration, formatNumber } from '~/lib/coupons';
+import { celsiusToFahrenheit } from '~/lib/units';
 
 export type TemperatureUnit = 'C' | 'F';
 

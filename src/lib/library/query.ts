@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { atmospheres, processes, surfacePreparations } from '../../../db/schema/enums';
-import { alloySlugs, layerKeyOf } from '../alloys';
-import { MAX_TEMPERATURE_C } from '../coupons';
-import { fahrenheitToCelsius } from '../units';
+import { alloySlugs, layerKeyOf } from '~/lib/alloys';
+import { MAX_TEMPERATURE_C } from '~/lib/coupons';
+import { fahrenheitToCelsius } from '~/lib/units';
 
 /**
  * The library's query, as it lives in the URL: filters, sort, paging. One schema for the
@@ -18,7 +18,13 @@ export type SortOrder = 'asc' | 'desc';
 const blank = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
 const optional = <T extends z.ZodType>(schema: T) => z.preprocess(blank, schema.optional());
 const slug = z.enum(alloySlugs as [string, ...string[]], { error: 'Choose an alloy from the catalogue.' });
-const range = (max: number, what: string) => optional(z.coerce.number({ error: `Give ${what} as a number.` }).min(-1000).max(max));
+const range = (max: number, what: string) =>
+  optional(
+    z.coerce
+      .number({ error: `Give ${what} as a number.` })
+      .min(-1000)
+      .max(max),
+  );
 const flag = optional(z.enum(['1', 'true', 'on'], { error: 'Use 1 to turn this on.' }));
 
 export const libraryQuerySchema = z
@@ -28,7 +34,12 @@ export const libraryQuerySchema = z
       z
         .string()
         .max(100)
-        .transform((value) => value.split(/[+ ]/).map((part) => part.trim()).filter(Boolean))
+        .transform((value) =>
+          value
+            .split(/[+ ]/)
+            .map((part) => part.trim())
+            .filter(Boolean),
+        )
         .pipe(z.tuple([slug, slug], { error: 'Give two alloys as a+b.' })),
     ),
     pairA: optional(slug),
@@ -53,12 +64,18 @@ export const libraryQuerySchema = z
     offset: z.preprocess(blank, z.coerce.number().int().min(0).max(1_000_000).default(0)),
   })
   .superRefine((query, context) => {
-    const pairs: [keyof typeof query, keyof typeof query][] = [['tempMin', 'tempMax'], ['holdMin', 'holdMax'], ['voltsMin', 'voltsMax']];
+    const pairs: [keyof typeof query, keyof typeof query][] = [
+      ['tempMin', 'tempMax'],
+      ['holdMin', 'holdMax'],
+      ['voltsMin', 'voltsMax'],
+    ];
     for (const [low, high] of pairs) {
       const [a, b] = [query[low], query[high]];
-      if (typeof a === 'number' && typeof b === 'number' && a > b) context.addIssue({ code: 'custom', path: [high], message: 'The upper end is below the lower end.' });
+      if (typeof a === 'number' && typeof b === 'number' && a > b)
+        context.addIssue({ code: 'custom', path: [high], message: 'The upper end is below the lower end.' });
     }
-    if (Boolean(query.pairA) !== Boolean(query.pairB)) context.addIssue({ code: 'custom', path: [query.pairA ? 'pairB' : 'pairA'], message: 'Choose both alloys of the pair.' });
+    if (Boolean(query.pairA) !== Boolean(query.pairB))
+      context.addIssue({ code: 'custom', path: [query.pairA ? 'pairB' : 'pairA'], message: 'Choose both alloys of the pair.' });
     if (query.cursor && query.offset > 0) context.addIssue({ code: 'custom', path: ['offset'], message: 'Page with the cursor or the offset, not both.' });
   })
   .transform((query) => {

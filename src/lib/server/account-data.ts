@@ -30,7 +30,10 @@ export async function exportAccount(userId: string) {
       layers: layers.filter((layer) => layer.couponId === coupon.id).map(({ position, alloy }) => ({ position, alloy })),
     })),
     photos: await Promise.all(
-      ownPhotos.map(async ({ ownerId: _owner, ...photo }) => ({ ...photo, originalUrl: await presignDownload(photo.originalKey, photo.contentType, 24 * 3600) })),
+      ownPhotos.map(async ({ ownerId: _owner, ...photo }) => ({
+        ...photo,
+        originalUrl: await presignDownload(photo.originalKey, photo.contentType, 24 * 3600),
+      })),
     ),
     swatches: ownSwatches,
   };

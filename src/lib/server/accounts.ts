@@ -1,4 +1,4 @@
-import type { SignUpInput } from '../account';
+import type { SignUpInput } from '~/lib/account';
 import { sendAlreadyRegisteredMail, sendNoAccountMail, sendResetMail, sendVerificationMail } from './account-mail';
 import { config } from './config';
 import { limits } from './limits';
@@ -22,7 +22,12 @@ const limited = (result: LimitResult) => (result.allowed ? null : { status: 'lim
  * (no enumeration); the address's owner is told by e-mail either way.
  */
 export async function signUp(input: SignUpInput, address: string): Promise<Limited<{ status: 'sent' }>> {
-  const stop = limited(await hitAll([[limits.signUpPerAddress, address], [limits.signUpPerEmail, input.email]]));
+  const stop = limited(
+    await hitAll([
+      [limits.signUpPerAddress, address],
+      [limits.signUpPerEmail, input.email],
+    ]),
+  );
   if (stop) return stop;
   const existing = await findUserByEmail(input.email);
   if (existing) {
@@ -53,7 +58,12 @@ export async function confirmEmail(token: string): Promise<EmailConfirmation> {
 
 /** Always the same answer; a reset link goes only to an address that has an account. */
 export async function requestPasswordReset(email: string, address: string): Promise<Limited<{ status: 'sent' }>> {
-  const stop = limited(await hitAll([[limits.resetPerAddress, address], [limits.resetPerEmail, email]]));
+  const stop = limited(
+    await hitAll([
+      [limits.resetPerAddress, address],
+      [limits.resetPerEmail, email],
+    ]),
+  );
   if (stop) return stop;
   const user = await findUserByEmail(email);
   if (user) await sendResetMail(user.email, link('/reset-password', await issueToken(user.id, 'reset-password')));

@@ -11,8 +11,5 @@ export interface AlloySummary {
 
 /** The alloy catalogue, in catalogue order. */
 export async function listAlloys(): Promise<AlloySummary[]> {
-  return db()
-    .select({ slug: alloys.slug, name: alloys.name, family: alloys.family, uns: alloys.uns })
-    .from(alloys)
-    .orderBy(asc(alloys.id));
+  return db().select({ slug: alloys.slug, name: alloys.name, family: alloys.family, uns: alloys.uns }).from(alloys).orderBy(asc(alloys.id));
 }

@@ -1,5 +1,5 @@
 import type { APIContext } from 'astro';
-import { hasRole, type RoleName } from '../account';
+import { hasRole, type RoleName } from '~/lib/account';
 import { problem } from './http';
 import { findUserById, type UserRecord } from './users';
 import { mayChange, maySee, type CouponAccess, type Viewer } from './visibility';

@@ -23,7 +23,10 @@ const configSchema = z.object({
   /** Signs and encrypts session cookies; at least 32 characters of randomness. */
   AUTH_SECRET: z.string({ error: 'is not set' }).min(32, { error: 'must be at least 32 characters' }),
   /** 1 behind a load balancer: rate limits read the client's address from X-Forwarded-For. */
-  TRUST_PROXY: z.enum(['0', '1'], { error: 'must be 0 or 1' }).default('0').transform((value) => value === '1'),
+  TRUST_PROXY: z
+    .enum(['0', '1'], { error: 'must be 0 or 1' })
+    .default('0')
+    .transform((value) => value === '1'),
   /** Raises the per-client-address account limits (tests act from many clients at once). */
   OXBLOOM_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().optional(),
 });

@@ -1,8 +1,8 @@
 import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../../db/schema';
-import { layerKeyOf } from '../alloys';
+import { layerKeyOf } from '~/lib/alloys';
 import type { APIContext } from 'astro';
-import type { Coupon, Visibility } from '../coupons';
+import type { Coupon, Visibility } from '~/lib/coupons';
 import { checkAccess, isResponse, requireCurrentUser } from './authorise';
 import { db } from './db';
 import { problem } from './http';
@@ -51,7 +51,8 @@ const couponColumns = {
   updatedAt: coupons.updatedAt,
 };
 
-async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>> {
+/** Each coupon's layers in order, for many coupons at once. */
+export async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>> {
   const byCoupon = new Map<number, CouponLayer[]>();
   if (couponIds.length === 0) return byCoupon;
   const rows = await db()
@@ -64,7 +65,7 @@ async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>
   return byCoupon;
 }
 
-function withLayers(row: Omit<CouponRecord, 'layers' | 'layerDetails'>, layers: CouponLayer[] = []): CouponRecord {
+export function withLayers(row: Omit<CouponRecord, 'layers' | 'layerDetails'>, layers: CouponLayer[] = []): CouponRecord {
   return { ...row, layers: layers.map((layer) => layer.alloy), layerDetails: layers };
 }
 
@@ -131,7 +132,10 @@ const recordOf = ({ layers, ...coupon }: Coupon) => ({ ...coupon, layerKey: laye
 export async function createCoupon(ownerId: string, input: Coupon): Promise<number> {
   const ids = await alloyIds(input.layers);
   return db().transaction(async (tx) => {
-    const [{ id }] = await tx.insert(coupons).values({ ...recordOf(input), ownerId }).$returningId();
+    const [{ id }] = await tx
+      .insert(coupons)
+      .values({ ...recordOf(input), ownerId })
+      .$returningId();
     await tx.insert(couponLayers).values(input.layers.map((slug, position) => ({ couponId: id, position, alloyId: ids.get(slug)! })));
     return id;
   });
@@ -149,11 +153,16 @@ export async function updateCoupon(id: number, input: Coupon): Promise<void> {
     for (const [position, slug] of input.layers.entries()) {
       const layer = existing.find((row) => row.position === position);
       if (layer) {
-        await tx.update(couponLayers).set({ alloyId: ids.get(slug)! }).where(eq(couponLayers.id, layer.id));
+        await tx
+          .update(couponLayers)
+          .set({ alloyId: ids.get(slug)! })
+          .where(eq(couponLayers.id, layer.id));
         // Swatches carry their layer's alloy for the library fit and colour search.
-        await tx.update(swatches).set({ alloyId: ids.get(slug)! }).where(eq(swatches.layerId, layer.id));
-      }
-      else await tx.insert(couponLayers).values({ couponId: id, position, alloyId: ids.get(slug)! });
+        await tx
+          .update(swatches)
+          .set({ alloyId: ids.get(slug)! })
+          .where(eq(swatches.layerId, layer.id));
+      } else await tx.insert(couponLayers).values({ couponId: id, position, alloyId: ids.get(slug)! });
     }
     const removed = existing.filter((row) => row.position >= input.layers.length).map((row) => row.id);
     if (removed.length) await tx.delete(couponLayers).where(inArray(couponLayers.id, removed));

@@ -88,4 +88,7 @@ export function createHealthMonitor(checks: HealthChecks, options: HealthOptions
 }
 
 /** The app's monitor: reports up to 5 s old, the mail server asked once a minute, 3 s per check. */
-export const health = createHealthMonitor({ db: pingDatabase, storage: pingStorage, mail: pingMail }, { maxAgeMs: 5_000, mailEveryMs: 60_000, timeoutMs: 3_000 });
+export const health = createHealthMonitor(
+  { db: pingDatabase, storage: pingStorage, mail: pingMail },
+  { maxAgeMs: 5_000, mailEveryMs: 60_000, timeoutMs: 3_000 },
+);

@@ -12,8 +12,7 @@ export interface Limit {
 
 export type LimitResult = { allowed: true } | { allowed: false; retryAfterSeconds: number };
 
-const bucketOf = (limit: Limit, subject: string) =>
-  `${limit.name}:${createHash('sha256').update(subject.toLowerCase()).digest('hex').slice(0, 40)}`;
+const bucketOf = (limit: Limit, subject: string) => `${limit.name}:${createHash('sha256').update(subject.toLowerCase()).digest('hex').slice(0, 40)}`;
 
 /**
  * Counts one attempt against a fixed window kept in MariaDB, so every app process shares it.

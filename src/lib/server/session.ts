@@ -3,7 +3,7 @@ import { decode, encode } from '@auth/core/jwt';
 import type { AstroCookies } from 'astro';
 import { and, count, eq, gt, lt, sql } from 'drizzle-orm';
 import { sessions, users } from '../../../db/schema';
-import type { RoleName } from '../account';
+import type { RoleName } from '~/lib/account';
 import { config } from './config';
 import { db } from './db';
 
@@ -31,9 +31,13 @@ export interface LiveSession {
 /** Records a new sign-in for `userId` and returns its id (for the cookie's `sid`). */
 export async function openSession(userId: string): Promise<string> {
   const id = randomBytes(32).toString('hex');
-  await db().insert(sessions).values({ sessionToken: id, userId, expires: new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000) });
+  await db()
+    .insert(sessions)
+    .values({ sessionToken: id, userId, expires: new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000) });
   // Housekeeping on the same index: this person's sessions that ran out.
-  await db().delete(sessions).where(and(eq(sessions.userId, userId), lt(sessions.expires, sql`UTC_TIMESTAMP()`)));
+  await db()
+    .delete(sessions)
+    .where(and(eq(sessions.userId, userId), lt(sessions.expires, sql`UTC_TIMESTAMP()`)));
   return id;
 }
 

@@ -1,7 +1,7 @@
 import { and, eq, inArray, isNotNull, or, sql, type SQL } from 'drizzle-orm';
 import { alloys, coupons, swatches } from '../../../db/schema';
-import type { Lab } from '../colour';
-import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit } from '../tint';
+import type { Lab } from '~/lib/colour';
+import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit } from '~/lib/tint';
 import { db } from './db';
 import { visibleCoupons, type Viewer } from './visibility';
 

@@ -50,5 +50,7 @@ export async function voidTokens(userId: string, purpose: TokenPurpose): Promise
 }
 
 export async function deleteExpiredTokens(): Promise<void> {
-  await db().delete(accountTokens).where(lt(accountTokens.expiresAt, sql`UTC_TIMESTAMP() - INTERVAL 7 DAY`));
+  await db()
+    .delete(accountTokens)
+    .where(lt(accountTokens.expiresAt, sql`UTC_TIMESTAMP() - INTERVAL 7 DAY`));
 }

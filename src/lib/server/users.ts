@@ -1,6 +1,6 @@
 import { asc, eq, sql } from 'drizzle-orm';
 import { users } from '../../../db/schema';
-import { normaliseEmail, type RoleName } from '../account';
+import { normaliseEmail, type RoleName } from '~/lib/account';
 import { db } from './db';
 
 export interface UserRecord {
@@ -49,7 +49,10 @@ export async function createUser(input: { name: string; email: string; passwordH
 }
 
 export async function markEmailVerified(id: string): Promise<void> {
-  await db().update(users).set({ emailVerified: sql`COALESCE(${users.emailVerified}, UTC_TIMESTAMP(3))` }).where(eq(users.id, id));
+  await db()
+    .update(users)
+    .set({ emailVerified: sql`COALESCE(${users.emailVerified}, UTC_TIMESTAMP(3))` })
+    .where(eq(users.id, id));
 }
 
 export async function updateName(id: string, name: string): Promise<void> {

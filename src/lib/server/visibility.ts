@@ -1,7 +1,7 @@
 import { eq, inArray, or, type SQL } from 'drizzle-orm';
 import { coupons } from '../../../db/schema';
-import type { RoleName } from '../account';
-import type { Visibility } from '../coupons';
+import type { RoleName } from '~/lib/account';
+import type { Visibility } from '~/lib/coupons';
 
 /**
  * Who may see and who may change a coupon (and with it its photos and swatches). One rule, in two

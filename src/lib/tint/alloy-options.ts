@@ -39,7 +39,13 @@ const options = (filter: (option: AlloyOption) => boolean) =>
   groupByFamily(
     tintModels
       .filter((model) => model.optics)
-      .map((model) => ({ slug: model.alloy.slug, name: model.alloy.name, family: model.alloy.family, heat: Boolean(model.heat), anodize: Boolean(model.anodize) }))
+      .map((model) => ({
+        slug: model.alloy.slug,
+        name: model.alloy.name,
+        family: model.alloy.family,
+        heat: Boolean(model.heat),
+        anodize: Boolean(model.anodize),
+      }))
       .filter(filter),
   );
 

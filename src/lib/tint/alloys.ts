@@ -3,7 +3,7 @@
  * in src/lib/alloys.ts, which the seed imports; this module re-exports it and names the slugs the
  * model registry must cover (a unit test checks the two lists agree).
  */
-import { alloyCatalogue, alloyFamilies, findAlloy, type AlloyFamily, type CatalogueAlloy } from '../alloys';
+import { alloyCatalogue, alloyFamilies, findAlloy, type AlloyFamily, type CatalogueAlloy } from '~/lib/alloys';
 
 export { alloyCatalogue as alloys, alloyFamilies, findAlloy, type AlloyFamily, type CatalogueAlloy as Alloy };
 

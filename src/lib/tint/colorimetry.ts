@@ -1,5 +1,5 @@
-import { bradfordAdaptation, colourFromXyz65, D65_WHITE, scalingAdaptation, type DisplayColour, type Xyz } from '../colour';
-import { applyMatrix, multiplyMatrices, type Matrix3 } from '../matrix';
+import { bradfordAdaptation, colourFromXyz65, D65_WHITE, scalingAdaptation, type DisplayColour, type Xyz } from '~/lib/colour';
+import { applyMatrix, multiplyMatrices, type Matrix3 } from '~/lib/matrix';
 import { xBar, yBar, zBar } from './data/cie-1931-2deg';
 import { illuminantSpectrum, type Illuminant } from './illuminants';
 import { WAVELENGTH_COUNT } from './spectral-grid';

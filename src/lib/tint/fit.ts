@@ -1,5 +1,5 @@
-import type { Lab } from '../colour';
-import { applyMatrix, invertMatrix, quadraticForm } from '../matrix';
+import type { Lab } from '~/lib/colour';
+import { applyMatrix, invertMatrix, quadraticForm } from '~/lib/matrix';
 import { arrheniusTerm, type AnodizeGrowth, type HeatGrowthLaw } from './growth';
 import { mostLikelyCandidate, thicknessCandidates } from './inverse';
 import { findTintModel, type HeatGrowthPrior, type TintModel } from './models';

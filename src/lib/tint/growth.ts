@@ -5,7 +5,6 @@ export const GAS_CONSTANT = 8.314462618;
 
 export const celsiusToKelvin = (celsius: number) => celsius + 273.15;
 
-
 /**
  * dⁿ = k(T)·t with k(T) = k₀·exp(−Q/RT): n = 2 is the parabolic law; a large n is the steep,
  * nearly self-limiting growth of thin temper films. Written around a reference heat
@@ -43,10 +42,7 @@ export function rateConstant(law: HeatGrowthLaw, temperatureC: number): number {
  * The activation energy of a parabolic law through two heats of the same hold:
  * Q = R·ln(k₂/k₁)/(1/T₁ − 1/T₂) with k ∝ d².
  */
-export function parabolicActivationEnergy(
-  first: { temperatureC: number; thicknessNm: number },
-  second: { temperatureC: number; thicknessNm: number },
-): number {
+export function parabolicActivationEnergy(first: { temperatureC: number; thicknessNm: number }, second: { temperatureC: number; thicknessNm: number }): number {
   const lnRatio = 2 * Math.log(second.thicknessNm / first.thicknessNm);
   return (GAS_CONSTANT * lnRatio) / (1 / celsiusToKelvin(first.temperatureC) - 1 / celsiusToKelvin(second.temperatureC));
 }

@@ -8,7 +8,7 @@ export { ladderView, type LadderView, type LadderBand, type LadderTick, type Lad
 export { buildLadder, colourAt, tintNameAt, MAX_THICKNESS_NM, type LadderStep } from './ladder';
 export { tintNames, type TintName } from './tint-names';
 export { heatThicknessNm, anodizeThicknessNm, type HeatGrowthLaw } from './growth';
-export { fahrenheitToCelsius, celsiusToFahrenheit } from '../units';
+export { fahrenheitToCelsius, celsiusToFahrenheit } from '~/lib/units';
 export { thicknessCandidates, type ThicknessCandidate } from './inverse';
 export { fitGrowth, type CouponObservation, type GrowthFit } from './fit';
 export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';

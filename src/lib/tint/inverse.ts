@@ -1,4 +1,4 @@
-import { deltaE2000, type Lab } from '../colour';
+import { deltaE2000, type Lab } from '~/lib/colour';
 import type { FilmSystemId } from './film-systems';
 import { referenceLadder, type ReferenceLadder } from './ladder';
 import type { TintName } from './tint-names';

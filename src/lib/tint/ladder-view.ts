@@ -1,4 +1,4 @@
-import type { Lab } from '../colour';
+import type { Lab } from '~/lib/colour';
 import type { Illuminant } from './illuminants';
 import { buildLadder } from './ladder';
 import type { TintModel } from './models';

@@ -1,4 +1,4 @@
-import type { DisplayColour } from '../colour';
+import type { DisplayColour } from '~/lib/colour';
 import { colourFromXyz, reflectanceToXyz, weightingTable } from './colorimetry';
 import { filmStack, type FilmSystemId } from './film-systems';
 import type { Illuminant } from './illuminants';
@@ -22,13 +22,7 @@ export interface LadderRange {
 export const DEFAULT_LADDER_RANGE: LadderRange = { fromNm: 0, toNm: 300, stepNm: 5 };
 
 /** Colours of films fromNm, fromNm + stepNm, … (count of them) on a system under an illuminant. */
-export function ladderColours(
-  system: FilmSystemId,
-  fromNm: number,
-  stepNm: number,
-  count: number,
-  illuminant: Illuminant = 'D65',
-): DisplayColour[] {
+export function ladderColours(system: FilmSystemId, fromNm: number, stepNm: number, count: number, illuminant: Illuminant = 'D65'): DisplayColour[] {
   const table = weightingTable(illuminant);
   const sums = weightedReflectanceSeries(filmStack(system), [table.x, table.y, table.z], fromNm, stepNm, count);
   const colours: DisplayColour[] = new Array(count);
@@ -87,11 +81,7 @@ export function referenceColourAt(system: FilmSystemId, thicknessNm: number): Di
 }
 
 /** The tint ladder: colour and name against oxide thickness. */
-export function buildLadder(
-  system: FilmSystemId,
-  range: LadderRange = DEFAULT_LADDER_RANGE,
-  illuminant: Illuminant = 'D65',
-): LadderStep[] {
+export function buildLadder(system: FilmSystemId, range: LadderRange = DEFAULT_LADDER_RANGE, illuminant: Illuminant = 'D65'): LadderStep[] {
   const count = Math.floor((range.toNm - range.fromNm) / range.stepNm + 1e-9) + 1;
   const colours = ladderColours(system, range.fromNm, range.stepNm, count, illuminant);
   return colours.map((colour, i) => {

@@ -1,4 +1,4 @@
-import { deltaE2000, type Lab } from '../colour';
+import { deltaE2000, type Lab } from '~/lib/colour';
 import { heatFitPrediction, heatPriorPrediction, type GrowthFit } from './fit';
 import { referenceColourAt, tintNameAt } from './ladder';
 import type { TintModel } from './models';
@@ -100,9 +100,7 @@ export function planPair(models: readonly [TintModel, TintModel], options: PairP
   const limit = options.limit ?? 5;
   const chosen: typeof scored = [];
   for (const candidate of scored) {
-    const sameLook = chosen.some((other) =>
-      other.labs.every((lab, i) => deltaE2000(lab, candidate.labs[i]) < SAME_LOOK_DELTA_E),
-    );
+    const sameLook = chosen.some((other) => other.labs.every((lab, i) => deltaE2000(lab, candidate.labs[i]) < SAME_LOOK_DELTA_E));
     if (sameLook) continue;
     chosen.push(candidate);
     if (chosen.length === limit) break;

@@ -1,5 +1,5 @@
 import * as z from 'zod/mini';
-import { isHexColour } from '../colour/hex-pattern';
+import { isHexColour } from '~/lib/colour/hex-pattern';
 import { atmospheres } from './warnings';
 
 /**
@@ -27,7 +27,9 @@ const temperatureSchema = z
 const holdSchema = z
   .number({ error: 'must be a number of minutes' })
   .check(z.positive({ error: 'must be more than 0 minutes' }), z.lte(MAX_HOLD_MINUTES, { error: `must be at most ${MAX_HOLD_MINUTES} minutes (a week)` }));
-const voltsSchema = z.number({ error: 'must be a number of volts' }).check(z.positive({ error: 'must be more than 0 V' }), z.lte(150, { error: 'must be at most 150 V' }));
+const voltsSchema = z
+  .number({ error: 'must be a number of volts' })
+  .check(z.positive({ error: 'must be more than 0 V' }), z.lte(150, { error: 'must be at most 150 V' }));
 
 export const predictRequestSchema = z.discriminatedUnion(
   'process',

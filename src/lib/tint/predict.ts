@@ -1,13 +1,11 @@
-import type { Lab } from '../colour';
+import type { Lab } from '~/lib/colour';
 import { heatFitPrediction, heatPriorPrediction, type GrowthFit } from './fit';
 import { colourAt, tintNameAt } from './ladder';
 import type { TintModel } from './models';
 import type { TintName } from './tint-names';
 import { anodizeWarnings, heatWarnings, type Atmosphere, type HeatWarning } from './warnings';
 
-export type PlannedProcess =
-  | { process: 'heat'; temperatureC: number; holdMinutes: number; atmosphere?: Atmosphere }
-  | { process: 'anodize'; volts: number };
+export type PlannedProcess = { process: 'heat'; temperatureC: number; holdMinutes: number; atmosphere?: Atmosphere } | { process: 'anodize'; volts: number };
 
 export interface ThicknessBand {
   low: number;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { hexToLab, type Lab } from '../colour';
+import { hexToLab, type Lab } from '~/lib/colour';
 import { illuminants } from './illuminants';
 import { MAX_THICKNESS_NM } from './ladder';
 import { findTintModel, missingModelReason, type ModelPart, type TintModel } from './models';

@@ -1,5 +1,5 @@
 /** The JSON bodies of the tint routes, built from validated requests (rounded for the wire). */
-import { hexToLab } from '../colour';
+import { hexToLab } from '~/lib/colour';
 import type { GrowthFit } from './fit';
 import { thicknessCandidates } from './inverse';
 import { buildLadder } from './ladder';
@@ -35,9 +35,7 @@ export function estimateResponse(model: TintModel, request: EstimateRequest) {
 /** Which basis the heat law of each layer rests on: the library fit when it has enough coupons. */
 export function heatBasis(alloy: string, fit: GrowthFit | null | undefined) {
   const couponCount = fit?.heat?.couponCount ?? 0;
-  return couponCount >= MIN_LIBRARY_COUPONS
-    ? { alloy, basis: 'library' as const, couponCount }
-    : { alloy, basis: 'reference' as const, couponCount: 0 };
+  return couponCount >= MIN_LIBRARY_COUPONS ? { alloy, basis: 'library' as const, couponCount } : { alloy, basis: 'reference' as const, couponCount: 0 };
 }
 
 export function planPairResponse(

@@ -90,14 +90,7 @@ export function reflectanceSpectrum(stack: FilmStack, dNm: number): Float64Array
   for (let i = 0; i < WAVELENGTH_COUNT; i += 1) {
     const amplitude = Math.exp(-stack.decayPerNm[i] * dNm);
     const phase = stack.phasePerNm[i] * dNm;
-    spectrum[i] = airy(
-      stack.r01Re[i],
-      stack.r01Im[i],
-      stack.r12Re[i],
-      stack.r12Im[i],
-      amplitude * Math.cos(phase),
-      amplitude * Math.sin(phase),
-    );
+    spectrum[i] = airy(stack.r01Re[i], stack.r01Im[i], stack.r12Re[i], stack.r12Im[i], amplitude * Math.cos(phase), amplitude * Math.sin(phase));
   }
   return spectrum;
 }

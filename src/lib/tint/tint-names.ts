@@ -1,4 +1,4 @@
-import { oklabToOklch, type Lab } from '../colour';
+import { oklabToOklch, type Lab } from '~/lib/colour';
 
 /**
  * Tint band names: the product's own vocabulary, built from the trade's colour words.

@@ -105,8 +105,7 @@ export function heatWarnings(model: TintModel, temperatureC: number, atmosphere:
 
   warnings.push({
     code: 'hot-work',
-    message:
-      'Hot work needs eye and burn protection. Forges make carbon monoxide; zinc-coated or cadmium-plated parts give toxic fumes.',
+    message: 'Hot work needs eye and burn protection. Forges make carbon monoxide; zinc-coated or cadmium-plated parts give toxic fumes.',
     source: COMMON_PRACTICE,
   });
   return warnings;

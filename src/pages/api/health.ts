@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { health } from '../../lib/server/health';
-import { json } from '../../lib/server/http';
+import { health } from '~/lib/server/health';
+import { json } from '~/lib/server/http';
 
 /**
  * Up or down, from a report a few seconds old (lib/server/health.ts): enough for a load balancer.

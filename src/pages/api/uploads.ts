@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { refuseUpload, uploadRequestSchema } from '../../lib/photo-requests';
-import type { PhotoContentType } from '../../lib/photos';
-import { isResponse, requireCurrentUser } from '../../lib/server/authorise';
-import { json, parseJson, problem } from '../../lib/server/http';
-import { createUpload, tooManyOpenUploads } from '../../lib/server/photos/uploads-ledger';
+import { refuseUpload, uploadRequestSchema } from '~/lib/photo-requests';
+import type { PhotoContentType } from '~/lib/photos';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { createUpload, tooManyOpenUploads } from '~/lib/server/photos/uploads-ledger';
 
 /**
  * A presigned PUT for one photo, under the caller's own prefix, signed for its type and size; the

@@ -1,7 +1,7 @@
 // The colour analysis on raw pixels (no decoding): synthetic coupons of known sRGB colour.
 import { describe, expect, it } from 'vitest';
 import { converter, differenceCiede2000 } from 'culori';
-import { analyseImage, AnalysisInputError, PIXEL_LIMITS, type Swatch } from '../../../src/lib/analysis';
+import { analyseImage, AnalysisInputError, PIXEL_LIMITS, type Swatch } from '~/lib/analysis';
 import { couponScene, GREY_CARD, illuminantACast, renderScene, TINTS, type Scene } from '../../fixtures/synthetic-photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 — both checked in tests/unit/colour/ (delta-e.test.ts, conversions.test.ts).

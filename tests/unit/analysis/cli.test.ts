@@ -5,7 +5,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { converter, differenceCiede2000 } from 'culori';
-import type { PhotoAnalysis } from '../../../src/lib/server/photos/measure';
+import type { PhotoAnalysis } from '~/lib/server/photos/measure';
 import { couponScene, encodeJpeg, illuminantACast, renderScene, TINTS } from '../../fixtures/synthetic-photos';
 
 const root = path.resolve(import.meta.dirname, '../../..');

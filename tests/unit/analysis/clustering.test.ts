@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { allClustersDistinct, bimodalSeparation, chooseCentres, CLUSTER_RULE } from '../../../src/lib/analysis/choose-clusters';
-import { assignPoints, fitKMeans } from '../../../src/lib/analysis/kmeans';
-import { seededRandom } from '../../../src/lib/random';
+import { allClustersDistinct, bimodalSeparation, chooseCentres, CLUSTER_RULE } from '~/lib/analysis/choose-clusters';
+import { assignPoints, fitKMeans } from '~/lib/analysis/kmeans';
+import { seededRandom } from '~/lib/random';
 
 /** Points along the OKLab L axis only (a = b = 0), from a list of L values. */
 function alongL(values: number[]): Float64Array {

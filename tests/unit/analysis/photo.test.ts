@@ -8,11 +8,11 @@ import { crc32 } from 'node:zlib';
 import sharp from 'sharp';
 import exifr from 'exifr';
 import { converter, differenceCiede2000 } from 'culori';
-import type { Swatch } from '../../../src/lib/analysis';
-import { decodePhoto, ImageRejected, MAX_INPUT_PIXELS } from '../../../src/lib/server/photos/decode';
-import { deriveFiles } from '../../../src/lib/server/photos/derived-files';
-import { isHeic } from '../../../src/lib/server/photos/heic-worker';
-import { analyseDecoded, analysePhoto } from '../../../src/lib/server/photos/measure';
+import type { Swatch } from '~/lib/analysis';
+import { decodePhoto, ImageRejected, MAX_INPUT_PIXELS } from '~/lib/server/photos/decode';
+import { deriveFiles } from '~/lib/server/photos/derived-files';
+import { isHeic } from '~/lib/server/photos/heic-worker';
+import { analyseDecoded, analysePhoto } from '~/lib/server/photos/measure';
 import { couponScene, encodeJpeg, encodePng, illuminantACast, renderScene, TINTS } from '../../fixtures/synthetic-photos';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15 (checked in tests/unit/colour/delta-e.test.ts and conversions.test.ts).
@@ -139,7 +139,7 @@ describe('EXIF', () => {
 /** The FourCCs of a RIFF file's top-level chunks. */
 function riffChunks(data: Buffer): string[] {
   const chunks: string[] = [];
-  for (let offset = 12; offset + 8 <= data.length; ) {
+  for (let offset = 12; offset + 8 <= data.length;) {
     chunks.push(data.toString('latin1', offset, offset + 4));
     const size = data.readUInt32LE(offset + 4);
     offset += 8 + size + (size % 2);
@@ -161,7 +161,10 @@ describe('EXIF orientation', () => {
         { region: { x: 150, y: 0, width: 150, height: 200 }, colour: TINTS.blue },
       ],
     });
-    const jpeg = await sharp(stored.data, { raw: { width: 300, height: 200, channels: 3 } }).jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
+    const jpeg = await sharp(stored.data, { raw: { width: 300, height: 200, channels: 3 } })
+      .jpeg({ quality: 95 })
+      .withMetadata({ orientation: 6 })
+      .toBuffer();
     const photo = await processPhoto(jpeg);
     expect([photo.width, photo.height]).toEqual([200, 300]);
     expect([photo.display.width, photo.display.height]).toEqual([200, 300]);
@@ -206,7 +209,11 @@ describe('files that are refused', () => {
   // Source: PNG (ISO/IEC 15948) IHDR — width and height are the first 8 bytes of its data, followed by a
   // CRC-32 over type and data. A header claiming 12000×10000 (120 MP) is refused before any decoding.
   it('an image over the pixel limit', async () => {
-    const png = Buffer.from(await sharp({ create: { width: 1, height: 1, channels: 3, background: '#000' } }).png().toBuffer());
+    const png = Buffer.from(
+      await sharp({ create: { width: 1, height: 1, channels: 3, background: '#000' } })
+        .png()
+        .toBuffer(),
+    );
     png.writeUInt32BE(12_000, 16);
     png.writeUInt32BE(10_000, 20);
     png.writeUInt32BE(crc32(png.subarray(12, 29)), 29);
@@ -217,7 +224,12 @@ describe('files that are refused', () => {
 
   it('an image format that is not accepted (SVG, GIF)', async () => {
     await expectRejected(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="40" height="40"><rect width="40" height="40"/></svg>'), 'unsupported');
-    await expectRejected(await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } }).gif().toBuffer(), 'unsupported');
+    await expectRejected(
+      await sharp({ create: { width: 8, height: 8, channels: 3, background: '#000' } })
+        .gif()
+        .toBuffer(),
+      'unsupported',
+    );
   });
 });
 

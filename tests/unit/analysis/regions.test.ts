@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AnalysisInputError, clipRegion, scaleRegion } from '../../../src/lib/analysis/regions';
+import { AnalysisInputError, clipRegion, scaleRegion } from '~/lib/analysis/regions';
 
 const full = { width: 6000, height: 4000 };
 const shrunk = { width: 1024, height: 683 };

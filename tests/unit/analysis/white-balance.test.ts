@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { LINEAR_RGB_TO_XYZ } from '../../../src/lib/colour';
-import { applyMatrix, type Vector3 } from '../../../src/lib/matrix';
-import { whiteBalanceMatrix } from '../../../src/lib/analysis/white-balance';
+import { LINEAR_RGB_TO_XYZ } from '~/lib/colour';
+import { applyMatrix, type Vector3 } from '~/lib/matrix';
+import { whiteBalanceMatrix } from '~/lib/analysis/white-balance';
 import { illuminantACast } from '../../fixtures/synthetic-photos';
 
 describe('white balance from a grey card', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { bradfordAdaptation, D65_WHITE } from '../../../src/lib/colour';
-import { applyMatrix, type Matrix3, type Vector3 } from '../../../src/lib/matrix';
+import { bradfordAdaptation, D65_WHITE } from '~/lib/colour';
+import { applyMatrix, type Matrix3, type Vector3 } from '~/lib/matrix';
 
 const whiteFromChromaticity = (x: number, y: number): Vector3 => [x / y, 1, (1 - x - y) / y];
 

@@ -2,8 +2,8 @@
 // as computed by culori, checked against their published definitions (CIEDE2000: delta-e.test.ts).
 import { describe, expect, it } from 'vitest';
 import { converter } from 'culori';
-import { hexToLab, linearRgbToOklab, oklabToLab, SRGB8_TO_LINEAR, xyzToLab, XYZ_TO_LINEAR_RGB } from '../../../src/lib/colour';
-import { applyMatrix } from '../../../src/lib/matrix';
+import { hexToLab, linearRgbToOklab, oklabToLab, SRGB8_TO_LINEAR, xyzToLab, XYZ_TO_LINEAR_RGB } from '~/lib/colour';
+import { applyMatrix } from '~/lib/matrix';
 
 const toLab65 = converter('lab65');
 const toOklab = converter('oklab');
@@ -82,10 +82,22 @@ describe('OKLab', () => {
   // Source: B. Ottosson, "A perceptual color space for image processing" (2020), table of XYZ (D65) →
   // OKLab test values, given there to three decimals (values from memory of that table).
   it.each([
-    [[0.95, 1, 1.089], [1, 0, 0]],
-    [[1, 0, 0], [0.45, 1.236, -0.019]],
-    [[0, 1, 0], [0.922, -0.671, 0.263]],
-    [[0, 0, 1], [0.153, -1.415, -0.449]],
+    [
+      [0.95, 1, 1.089],
+      [1, 0, 0],
+    ],
+    [
+      [1, 0, 0],
+      [0.45, 1.236, -0.019],
+    ],
+    [
+      [0, 1, 0],
+      [0.922, -0.671, 0.263],
+    ],
+    [
+      [0, 0, 1],
+      [0.153, -1.415, -0.449],
+    ],
   ])('XYZ %j', ([x, y, z], [l, a, b]) => {
     const oklab = toOklab({ mode: 'xyz65', x, y, z });
     expect(Math.abs(oklab.l - l)).toBeLessThan(0.002);
@@ -95,8 +107,14 @@ describe('OKLab', () => {
 
   // Source: the same table (from memory); the colour core's per-pixel path, from linear sRGB.
   it.each([
-    [[0.95, 1, 1.089], [1, 0, 0]],
-    [[0, 0, 1], [0.153, -1.415, -0.449]],
+    [
+      [0.95, 1, 1.089],
+      [1, 0, 0],
+    ],
+    [
+      [0, 0, 1],
+      [0.153, -1.415, -0.449],
+    ],
   ])('linearRgbToOklab of XYZ %j', (xyz, [l, a, b]) => {
     const oklab = linearRgbToOklab(...applyMatrix(XYZ_TO_LINEAR_RGB, xyz));
     expect(Math.abs(oklab.l - l)).toBeLessThan(0.002);

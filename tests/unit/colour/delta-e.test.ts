@@ -1,6 +1,6 @@
 import { differenceCiede2000 } from 'culori';
 import { describe, expect, it } from 'vitest';
-import { deltaE2000 } from '../../../src/lib/colour';
+import { deltaE2000 } from '~/lib/colour';
 
 // Source: Sharma, Wu & Dalal, "The CIEDE2000 color-difference formula: implementation notes,
 // supplementary test data, and mathematical observations", Color Res. Appl. 30(1):21–30 (2005),

@@ -1,6 +1,6 @@
 import { converter, formatHex } from 'culori';
 import { describe, expect, it } from 'vitest';
-import { colourFromLab, colourFromXyz65, hexToLab } from '../../../src/lib/colour';
+import { colourFromLab, colourFromXyz65, hexToLab } from '~/lib/colour';
 
 const toOklch = converter('oklch');
 const toLrgb = converter('lrgb');

@@ -1,8 +1,8 @@
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { callApi, NO_CONNECTION } from '../../../src/components/api-client';
-import { json, problem } from '../../../src/lib/server/http';
+import { callApi, NO_CONNECTION } from '~/components/api-client';
+import { json, problem } from '~/lib/server/http';
 
 // The islands' fetch client against a real HTTP server that answers the way our routes do:
 // bodies made by the routes' own helpers (json, problem), statuses as HTTP defines them.

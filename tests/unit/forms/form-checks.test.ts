@@ -2,18 +2,19 @@ import { describe, expect, it } from 'vitest';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { FieldValues, Resolver, ResolverOptions } from 'react-hook-form';
 import { z } from 'zod';
-import { couponResolver, emptyForm, payloadOf, type FormState } from '../../../src/components/coupons/coupon-form-state';
-import { heatResolver, pairResolver, planPairRequestOf, type HeatForm, type PairForm } from '../../../src/components/tint/planner-forms';
-import { couponInputSchema } from '../../../src/lib/coupons';
-import { describeZodError } from '../../../src/lib/server/http';
-import { plannerAlloyOptions } from '../../../src/lib/tint/alloy-options';
-import { planPairRequestSchema, predictRequestSchema } from '../../../src/lib/tint/planner-requests';
+import { couponResolver, emptyForm, payloadOf, type FormState } from '~/components/coupons/coupon-form-state';
+import { heatResolver, pairResolver, planPairRequestOf, type HeatForm, type PairForm } from '~/components/tint/planner-forms';
+import { couponInputSchema } from '~/lib/coupons';
+import { describeZodError } from '~/lib/server/http';
+import { plannerAlloyOptions } from '~/lib/tint/alloy-options';
+import { planPairRequestSchema, predictRequestSchema } from '~/lib/tint/planner-requests';
 
 // The forms' checks through React Hook Form's zod resolver, with the routes' own schemas: each
 // message lands beside the field that shows it, worded as the schema (and so the API) words it.
 
 const options: ResolverOptions<FieldValues> = { fields: {}, names: [], shouldUseNativeValidation: false, criteriaMode: 'firstError' };
-const check = <Form extends FieldValues, Body>(resolver: Resolver<Form, unknown, Body>, form: NoInfer<Form>) => resolver(form, undefined, options as ResolverOptions<Form>);
+const check = <Form extends FieldValues, Body>(resolver: Resolver<Form, unknown, Body>, form: NoInfer<Form>) =>
+  resolver(form, undefined, options as ResolverOptions<Form>);
 
 describe('the coupon form (zod/mini schema)', () => {
   const valid: FormState = { ...emptyForm, title: 'Grade 5 straw test', layers: ['ti-grade-5'], surfaceGrit: '400', temperature: '540', holdMinutes: '30' };
@@ -78,10 +79,22 @@ describe('the heat planner', () => {
 });
 
 describe('the laminate pair planner', () => {
-  const form: PairForm = { alloys: ['ti-grade-2', 'ti-grade-5'], goal: 'contrast', targets: ['#c9a23a', '#2f5fa8'], unit: 'C', temperature: ['', ''], hold: ['', ''] };
+  const form: PairForm = {
+    alloys: ['ti-grade-2', 'ti-grade-5'],
+    goal: 'contrast',
+    targets: ['#c9a23a', '#2f5fa8'],
+    unit: 'C',
+    temperature: ['', ''],
+    hold: ['', ''],
+  };
 
   it('leaves blank ranges to the planner and sends the wanted colours only when aiming for them', async () => {
-    expect((await check(pairResolver, form)).values).toEqual({ alloys: ['ti-grade-2', 'ti-grade-5'], target: undefined, temperatureC: undefined, holdMinutes: undefined });
+    expect((await check(pairResolver, form)).values).toEqual({
+      alloys: ['ti-grade-2', 'ti-grade-5'],
+      target: undefined,
+      temperatureC: undefined,
+      holdMinutes: undefined,
+    });
     expect((await check(pairResolver, { ...form, goal: 'target' })).values).toMatchObject({ target: ['#c9a23a', '#2f5fa8'] });
   });
 
@@ -93,7 +106,9 @@ describe('the laminate pair planner', () => {
     ['a wanted colour that is not one', { goal: 'target', targets: ['#c9a23a', 'blue'] }, 'targets.1', 'target.1: must be a colour such as #3a6ea5'],
   ])('shows %s beside its field, as the plan-pair route words it', async (_case, change, field, message) => {
     const result = await check(pairResolver, { ...form, ...change });
-    const shown = field.split('.').reduce<unknown>((errors, key) => (errors as Record<string, unknown> | undefined)?.[key], result.errors) as { message?: string };
+    const shown = field.split('.').reduce<unknown>((errors, key) => (errors as Record<string, unknown> | undefined)?.[key], result.errors) as {
+      message?: string;
+    };
     expect(shown?.message).toBe(message);
     expect(result.errors.root?.message).toBe(message);
     // The same words the route answers for the same body.

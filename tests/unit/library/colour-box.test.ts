@@ -1,7 +1,7 @@
 import { differenceCiede2000 } from 'culori';
 import { describe, expect, it } from 'vitest';
-import { deltaE00Box, insideBox, MAX_BOXED_DELTA_E } from '../../../src/lib/library/colour-box';
-import { seededRandom } from '../../../src/lib/random';
+import { deltaE00Box, insideBox, MAX_BOXED_DELTA_E } from '~/lib/library/colour-box';
+import { seededRandom } from '~/lib/random';
 
 // An independent CIEDE2000: culori's (kL = kC = kH = 1), itself checked against Sharma, Wu &
 // Dalal (2005) Table 1 beside our own in tests/unit/colour/delta-e.test.ts.
@@ -24,7 +24,11 @@ describe('deltaE00Box', () => {
       const norm = Math.hypot(direction.l, direction.a, direction.b);
       for (let step = 1; step < 200; step += 1) {
         const distance = step * 0.08 * t;
-        const other = { l: centre.l + (direction.l / norm) * distance, a: centre.a + (direction.a / norm) * distance, b: centre.b + (direction.b / norm) * distance };
+        const other = {
+          l: centre.l + (direction.l / norm) * distance,
+          a: centre.a + (direction.a / norm) * distance,
+          b: centre.b + (direction.b / norm) * distance,
+        };
         const difference = dE(centre, other);
         if (difference > t) break;
         checked += 1;
@@ -39,7 +43,13 @@ describe('deltaE00Box', () => {
   it('holds for the worst cases of the cross term: blue hues near 275°, high chroma, and grey', () => {
     // Source: Sharma, Wu & Dalal (2005): RT peaks in the blue region (h̄' near 275°) and at high chroma.
     const random = seededRandom(7);
-    for (const centre of [{ l: 50, a: 2.6772, b: -79.7751 }, { l: 30, a: 10, b: -110 }, { l: 50, a: 0, b: 0 }, { l: 2, a: 0.5, b: -0.5 }, { l: 98, a: -60, b: 90 }]) {
+    for (const centre of [
+      { l: 50, a: 2.6772, b: -79.7751 },
+      { l: 30, a: 10, b: -110 },
+      { l: 50, a: 0, b: 0 },
+      { l: 2, a: 0.5, b: -0.5 },
+      { l: 98, a: -60, b: 90 },
+    ]) {
       for (const t of [1, 4, 10]) {
         const box = deltaE00Box(centre, t)!;
         for (let sample = 0; sample < 5_000; sample += 1) {

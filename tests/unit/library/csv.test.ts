@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { csvCell, toCsv } from '../../../src/lib/library/csv';
+import { csvCell, toCsv } from '~/lib/library/csv';
 
 describe('csvCell', () => {
   // Source: OWASP, "CSV Injection": cells beginning with = + - @ tab (0x09) or carriage return (0x0D) get a leading single quote.
@@ -33,6 +33,11 @@ describe('csvCell', () => {
   });
 
   it('ends every record with CRLF (RFC 4180 §2.1)', () => {
-    expect(toCsv([['a', 1], ['=b', null]])).toBe("a,1\r\n'=b,\r\n");
+    expect(
+      toCsv([
+        ['a', 1],
+        ['=b', null],
+      ]),
+    ).toBe("a,1\r\n'=b,\r\n");
   });
 });

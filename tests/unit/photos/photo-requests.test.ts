@@ -1,7 +1,7 @@
 // The photo requests' own checks, table-driven; the limits are the issue's (four formats, 30 MB).
 import { describe, expect, it } from 'vitest';
-import { checkRegions, refuseUpload, regionsSchema, TOO_BIG, UNACCEPTED_TYPE, uploadRequestSchema } from '../../../src/lib/photo-requests';
-import { declaredContentType, formatLab, formatShare, kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind } from '../../../src/lib/photos';
+import { checkRegions, refuseUpload, regionsSchema, TOO_BIG, UNACCEPTED_TYPE, uploadRequestSchema } from '~/lib/photo-requests';
+import { declaredContentType, formatLab, formatShare, kindMismatchMessage, MAX_UPLOAD_BYTES, sameImageKind } from '~/lib/photos';
 
 describe('an upload request', () => {
   it.each([
@@ -38,8 +38,12 @@ describe('the kind of image declared and the kind decoded', () => {
   });
 
   it('names both kinds and the file name the photo should have', () => {
-    expect(kindMismatchMessage('image/png', 'image/jpeg')).toBe('This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.');
-    expect(kindMismatchMessage('image/heic', 'image/webp')).toBe('This file is a HEIC image, but it was declared as WebP. Give it the right file name (.heic) and upload it again.');
+    expect(kindMismatchMessage('image/png', 'image/jpeg')).toBe(
+      'This file is a PNG image, but it was declared as JPEG. Give it the right file name (.png) and upload it again.',
+    );
+    expect(kindMismatchMessage('image/heic', 'image/webp')).toBe(
+      'This file is a HEIC image, but it was declared as WebP. Give it the right file name (.heic) and upload it again.',
+    );
   });
 });
 
@@ -60,8 +64,14 @@ describe('regions', () => {
   it('must name the coupon’s own layers and lie inside the photo', () => {
     const size = { width: 100, height: 50 };
     expect(checkRegions([layer(1), grey], [1, 2], size)).toBeNull();
-    expect(checkRegions([layer(3)], [1, 2], size)).toEqual({ field: 'regions.0.layerId', message: 'regions.0.layerId: that layer is not part of this coupon.' });
-    expect(checkRegions([layer(1, 95)], [1], size)).toEqual({ field: 'regions.0', message: 'regions.0: The rectangle reaches outside the photo (100 × 50 pixels).' });
+    expect(checkRegions([layer(3)], [1, 2], size)).toEqual({
+      field: 'regions.0.layerId',
+      message: 'regions.0.layerId: that layer is not part of this coupon.',
+    });
+    expect(checkRegions([layer(1, 95)], [1], size)).toEqual({
+      field: 'regions.0',
+      message: 'regions.0: The rectangle reaches outside the photo (100 × 50 pixels).',
+    });
   });
 });
 

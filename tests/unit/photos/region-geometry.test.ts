@@ -1,7 +1,7 @@
 // The region editor's geometry: screen pointer positions to photo pixels and back (common practice:
 // a linear map between the shown box and the photo's pixel grid), kept inside the photo.
 import { describe, expect, it } from 'vitest';
-import { isBigEnough, keyStep, minimumSide, moved, placement, resized, spanned, toPhotoPoint } from '../../../src/components/photos/region-geometry';
+import { isBigEnough, keyStep, minimumSide, moved, placement, resized, spanned, toPhotoPoint } from '~/components/photos/region-geometry';
 
 const photo = { width: 4000, height: 3000 };
 const box = { left: 100, top: 50, width: 800, height: 600 };
@@ -9,10 +9,22 @@ const box = { left: 100, top: 50, width: 800, height: 600 };
 describe('the region editor’s geometry', () => {
   it.each([
     // [pointer on screen, point in photo pixels] — the box shows the photo at 1/5 scale.
-    [{ x: 100, y: 50 }, { x: 0, y: 0 }],
-    [{ x: 500, y: 350 }, { x: 2000, y: 1500 }],
-    [{ x: 900, y: 650 }, { x: 4000, y: 3000 }],
-    [{ x: 1200, y: -20 }, { x: 4000, y: 0 }], // dragged past the edges: held at them
+    [
+      { x: 100, y: 50 },
+      { x: 0, y: 0 },
+    ],
+    [
+      { x: 500, y: 350 },
+      { x: 2000, y: 1500 },
+    ],
+    [
+      { x: 900, y: 650 },
+      { x: 4000, y: 3000 },
+    ],
+    [
+      { x: 1200, y: -20 },
+      { x: 4000, y: 0 },
+    ], // dragged past the edges: held at them
   ])('maps the pointer at %o to %o', (client, expected) => {
     expect(toPhotoPoint(client, box, photo)).toEqual(expected);
   });

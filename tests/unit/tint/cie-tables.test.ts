@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { xBar, yBar, zBar } from '../../../src/lib/tint/data/cie-1931-2deg';
-import { d65 } from '../../../src/lib/tint/data/illuminant-d65';
-import { colourFromXyz, whitePoint } from '../../../src/lib/tint/colorimetry';
-import { illuminantA } from '../../../src/lib/tint/illuminants';
-import { gridIndex } from '../../../src/lib/tint/spectral-grid';
+import { xBar, yBar, zBar } from '~/lib/tint/data/cie-1931-2deg';
+import { d65 } from '~/lib/tint/data/illuminant-d65';
+import { colourFromXyz, whitePoint } from '~/lib/tint/colorimetry';
+import { illuminantA } from '~/lib/tint/illuminants';
+import { gridIndex } from '~/lib/tint/spectral-grid';
 
 const at = (table: readonly number[], nm: number) => table[gridIndex(nm)];
 

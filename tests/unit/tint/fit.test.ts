@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { fitGrowth, heatFitPrediction, type CouponObservation } from '../../../src/lib/tint/fit';
-import { heatThicknessNm, type HeatGrowthLaw } from '../../../src/lib/tint/growth';
-import { colourAt } from '../../../src/lib/tint/ladder';
-import { findTintModel } from '../../../src/lib/tint/models';
-import { INTERVAL_Z, predictTint } from '../../../src/lib/tint/predict';
+import { fitGrowth, heatFitPrediction, type CouponObservation } from '~/lib/tint/fit';
+import { heatThicknessNm, type HeatGrowthLaw } from '~/lib/tint/growth';
+import { colourAt } from '~/lib/tint/ladder';
+import { findTintModel } from '~/lib/tint/models';
+import { INTERVAL_Z, predictTint } from '~/lib/tint/predict';
 import { gaussian, seededRandom } from './synthetic';
 
 // Synthetic coupons from a known law with multiplicative noise: the check is that the fit recovers
@@ -46,9 +46,7 @@ describe('fitting the heat law to coupons', () => {
   });
 
   it('is robust to outliers: ten coupons three times too thick barely move it', () => {
-    const spoiled = coupons.map((coupon, i) =>
-      i % 8 === 0 && coupon.process === 'heat' ? { ...coupon, thicknessNm: coupon.thicknessNm! * 3 } : coupon,
-    );
+    const spoiled = coupons.map((coupon, i) => (i % 8 === 0 && coupon.process === 'heat' ? { ...coupon, thicknessNm: coupon.thicknessNm! * 3 } : coupon));
     const fit = fitGrowth('ti-grade-5', spoiled).heat!;
     expect(fit.outlierCount).toBe(10);
     expect(fit.law.reference.thicknessNm).toBeGreaterThan(30 * 0.93);

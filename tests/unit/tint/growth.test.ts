@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import {
-  GAS_CONSTANT,
-  celsiusToKelvin,
-  heatThicknessNm,
-  parabolicActivationEnergy,
-  rateConstant,
-} from '../../../src/lib/tint/growth';
-import { findTintModel } from '../../../src/lib/tint/models';
+import { GAS_CONSTANT, celsiusToKelvin, heatThicknessNm, parabolicActivationEnergy, rateConstant } from '~/lib/tint/growth';
+import { findTintModel } from '~/lib/tint/models';
 
 const titanium = findTintModel('ti-grade-5')!.heat!.law;
 const steel = findTintModel('steel-1095')!.heat!.law;

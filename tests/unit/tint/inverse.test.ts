@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { colourAt } from '../../../src/lib/tint/ladder';
-import { mostLikelyCandidate, thicknessCandidates } from '../../../src/lib/tint/inverse';
-import { hexToLab } from '../../../src/lib/colour';
+import { colourAt } from '~/lib/tint/ladder';
+import { mostLikelyCandidate, thicknessCandidates } from '~/lib/tint/inverse';
+import { hexToLab } from '~/lib/colour';
 
 // Round trips through the model itself: no published source is needed to check that the inverse
 // finds the thickness a colour came from.

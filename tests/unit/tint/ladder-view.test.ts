@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { ladderAlloyOptions, plannerAlloyOptions } from '../../../src/lib/tint/alloy-options';
-import { ladderView } from '../../../src/lib/tint/ladder-view';
-import { findTintModel } from '../../../src/lib/tint/models';
+import { ladderAlloyOptions, plannerAlloyOptions } from '~/lib/tint/alloy-options';
+import { ladderView } from '~/lib/tint/ladder-view';
+import { findTintModel } from '~/lib/tint/models';
 
 const ti64 = findTintModel('ti-grade-5')!;
 const view = ladderView(ti64, 'D65');

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { alloyCatalogue } from '../../../src/lib/alloys';
-import { modelledSlugs } from '../../../src/lib/tint/alloys';
-import { findTintModel, tintModels } from '../../../src/lib/tint/models';
+import { alloyCatalogue } from '~/lib/alloys';
+import { modelledSlugs } from '~/lib/tint/alloys';
+import { findTintModel, tintModels } from '~/lib/tint/models';
 
 describe('the model registry', () => {
   it('covers exactly the alloy catalogue', () => {

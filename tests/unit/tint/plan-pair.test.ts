@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { deltaE2000 } from '../../../src/lib/colour';
-import { heatThicknessNm } from '../../../src/lib/tint/growth';
-import { referenceColourAt } from '../../../src/lib/tint/ladder';
-import { findTintModel } from '../../../src/lib/tint/models';
-import { planPair } from '../../../src/lib/tint/plan-pair';
-import { fitGrowth } from '../../../src/lib/tint/fit';
-import { ModelUnavailableError } from '../../../src/lib/tint/predict';
+import { deltaE2000 } from '~/lib/colour';
+import { heatThicknessNm } from '~/lib/tint/growth';
+import { referenceColourAt } from '~/lib/tint/ladder';
+import { findTintModel } from '~/lib/tint/models';
+import { planPair } from '~/lib/tint/plan-pair';
+import { fitGrowth } from '~/lib/tint/fit';
+import { ModelUnavailableError } from '~/lib/tint/predict';
 
 // The planner is a search over the model: its checks are against the model itself (no published source).
 const titanium = findTintModel('ti-grade-5')!;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { findTintModel } from '../../../src/lib/tint/models';
-import { ModelUnavailableError, predictTint } from '../../../src/lib/tint/predict';
+import { findTintModel } from '~/lib/tint/models';
+import { ModelUnavailableError, predictTint } from '~/lib/tint/predict';
 
 const model = (slug: string) => findTintModel(slug)!;
 const heat = (slug: string, temperatureC: number, atmosphere: 'air' | 'argon' | 'other' = 'air', holdMinutes = 30) =>

@@ -1,11 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  estimateRequestSchema,
-  ladderRequestSchema,
-  lookUpModel,
-  planPairRequestSchema,
-  predictRequestSchema,
-} from '../../../src/lib/tint/requests';
+import { estimateRequestSchema, ladderRequestSchema, lookUpModel, planPairRequestSchema, predictRequestSchema } from '~/lib/tint/requests';
 import { z } from 'zod';
 
 // Route-level validation: the limits come from the API section (temperature 0–1600 °C,

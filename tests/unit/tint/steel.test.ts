@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { heatThicknessNm } from '../../../src/lib/tint/growth';
-import { fahrenheitToCelsius } from '../../../src/lib/units';
-import { tintNameAt } from '../../../src/lib/tint/ladder';
-import { findTintModel } from '../../../src/lib/tint/models';
-import type { TintName } from '../../../src/lib/tint/tint-names';
+import { heatThicknessNm } from '~/lib/tint/growth';
+import { fahrenheitToCelsius } from '~/lib/units';
+import { tintNameAt } from '~/lib/tint/ladder';
+import { findTintModel } from '~/lib/tint/models';
+import type { TintName } from '~/lib/tint/tint-names';
 
 const STEEL = 'iron-oxide-on-iron' as const;
 const law = findTintModel('steel-1084')!.heat!.law;

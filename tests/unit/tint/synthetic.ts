@@ -1,4 +1,4 @@
-export { seededRandom } from '../../../src/lib/random';
+export { seededRandom } from '~/lib/random';
 
 /** A standard normal deviate (Box–Muller). */
 export function gaussian(random: () => number): number {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { opticalConstants } from '../../../src/lib/tint/data/optical-constants';
-import { filmReflectance, prepareStack, reflectanceSpectrum, weightedReflectanceSeries } from '../../../src/lib/tint/thin-film';
-import { WAVELENGTH_COUNT, wavelengthsNm } from '../../../src/lib/tint/spectral-grid';
+import { opticalConstants } from '~/lib/tint/data/optical-constants';
+import { filmReflectance, prepareStack, reflectanceSpectrum, weightedReflectanceSeries } from '~/lib/tint/thin-film';
+import { WAVELENGTH_COUNT, wavelengthsNm } from '~/lib/tint/spectral-grid';
 
 const air = { n: 1, k: 0 };
 /** Source: Fresnel, normal incidence: R = ((n − 1)² + k²)/((n + 1)² + k²) (Born & Wolf, Principles of Optics, §14.2; Hecht, Optics, §4.6). */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { buildLadder, colourAt, tintNameAt } from '../../../src/lib/tint/ladder';
-import { findTintModel } from '../../../src/lib/tint/models';
-import { predictTint } from '../../../src/lib/tint/predict';
+import { buildLadder, colourAt, tintNameAt } from '~/lib/tint/ladder';
+import { findTintModel } from '~/lib/tint/models';
+import { predictTint } from '~/lib/tint/predict';
 
 const TI = 'tio2-on-titanium' as const;
 const ti64 = findTintModel('ti-grade-5')!;
@@ -28,7 +28,23 @@ describe('titanium tint ladder (TiO2 on Ti)', () => {
     // Source: REFERENCES.md, typical practice [from memory]: straw/gold → bronze → purple → blue →
     // light blue → (silver-yellow) → gold → magenta/rose → blue-violet → teal/green.
     const sequence = nameSequence(220);
-    expect(inOrder(sequence, ['silver', 'straw', 'gold', 'bronze', 'purple', 'blue', 'light blue', 'second-order gold', 'rose', 'violet', 'second-order blue', 'teal', 'green'])).toBe(true);
+    expect(
+      inOrder(sequence, [
+        'silver',
+        'straw',
+        'gold',
+        'bronze',
+        'purple',
+        'blue',
+        'light blue',
+        'second-order gold',
+        'rose',
+        'violet',
+        'second-order blue',
+        'teal',
+        'green',
+      ]),
+    ).toBe(true);
   });
 
   it('starts from the bare metal: silver at zero thickness', () => {

@@ -1,11 +1,11 @@
 import { and, between, eq, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
-import { deltaE00Box } from '../../library/colour-box';
-import type { ColourSearch } from '../../library/colour-search';
-import { deltaE2000 } from '../../colour';
-import type { SessionUser } from '../authorise';
-import { visibleCoupons } from '../visibility';
-import { db } from '../db';
+import { deltaE00Box } from '~/lib/library/colour-box';
+import type { ColourSearch } from '~/lib/library/colour-search';
+import { deltaE2000 } from '~/lib/colour';
+import type { SessionUser } from '~/lib/server/authorise';
+import { visibleCoupons } from '~/lib/server/visibility';
+import { db } from '~/lib/server/db';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
@@ -82,6 +82,14 @@ export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promi
       couponId: row.couponId,
       layer: row.layer,
       alloy: row.alloy,
-      coupon: { title: row.title, layerKey: row.layerKey, process: row.process, temperatureC: row.temperatureC, holdSeconds: row.holdSeconds, volts: row.volts, atmosphere: row.atmosphere },
+      coupon: {
+        title: row.title,
+        layerKey: row.layerKey,
+        process: row.process,
+        temperatureC: row.temperatureC,
+        holdSeconds: row.holdSeconds,
+        volts: row.volts,
+        atmosphere: row.atmosphere,
+      },
     }));
 }

@@ -1,6 +1,6 @@
-import { toCsv, type CsvValue } from '../../library/csv';
-import type { LibraryQuery } from '../../library/query';
-import type { SessionUser } from '../authorise';
+import { toCsv, type CsvValue } from '~/lib/library/csv';
+import type { LibraryQuery } from '~/lib/library/query';
+import type { SessionUser } from '~/lib/server/authorise';
 import { listLibrary, type LibraryCoupon } from './list';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
@@ -21,7 +21,21 @@ export async function exportLibrary(viewer: Viewer, query: LibraryQuery): Promis
   }
 }
 
-const header = ['id', 'title', 'layers', 'process', 'temperature_c', 'hold_seconds', 'volts', 'atmosphere', 'surface_prep', 'owner', 'visibility', 'logged_at', 'dominant_swatches'];
+const header = [
+  'id',
+  'title',
+  'layers',
+  'process',
+  'temperature_c',
+  'hold_seconds',
+  'volts',
+  'atmosphere',
+  'surface_prep',
+  'owner',
+  'visibility',
+  'logged_at',
+  'dominant_swatches',
+];
 
 export function libraryCsv(coupons: LibraryCoupon[]): string {
   const rows: CsvValue[][] = coupons.map((coupon) => [

@@ -1,9 +1,9 @@
 import { and, asc, count, desc, eq, gte, inArray, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches } from '../../../../db/schema';
-import { decodeCursor, encodeCursor, type LibraryCursor, type LibraryQuery } from '../../library/query';
-import type { SessionUser } from '../authorise';
-import { visibleCoupons } from '../visibility';
-import { db } from '../db';
+import { decodeCursor, encodeCursor, type LibraryCursor, type LibraryQuery } from '~/lib/library/query';
+import type { SessionUser } from '~/lib/server/authorise';
+import { visibleCoupons } from '~/lib/server/visibility';
+import { db } from '~/lib/server/db';
 import { listCouponRows, type CouponRecord } from './coupon-rows';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
@@ -33,7 +33,9 @@ export function libraryWhere(viewer: Viewer, query: LibraryQuery, alloyId?: numb
   return and(
     visibleCoupons(viewer),
     query.mineOnly && viewer ? eq(coupons.ownerId, viewer.id) : undefined,
-    alloyId !== undefined ? sql`exists (select 1 from ${couponLayers} where ${couponLayers.couponId} = ${coupons.id} and ${couponLayers.alloyId} = ${alloyId})` : undefined,
+    alloyId !== undefined
+      ? sql`exists (select 1 from ${couponLayers} where ${couponLayers.couponId} = ${coupons.id} and ${couponLayers.alloyId} = ${alloyId})`
+      : undefined,
     query.pairKey ? eq(coupons.layerKey, query.pairKey) : undefined,
     query.process ? eq(coupons.process, query.process) : undefined,
     query.tempMinC !== undefined ? gte(coupons.temperatureC, query.tempMinC) : undefined,
@@ -81,11 +83,17 @@ export async function listLibrary(viewer: Viewer, query: LibraryQuery): Promise<
   const where = libraryWhere(viewer, query, alloyId);
   const column = sortColumn[query.sort];
   const direction = query.order === 'asc' ? asc : desc;
-  const rows = await listCouponRows(and(where, cursor ? afterCursor(cursor) : undefined), [sql`${column} is null`, direction(column), direction(coupons.id)], query.limit + 1, query.offset);
+  const rows = await listCouponRows(
+    and(where, cursor ? afterCursor(cursor) : undefined),
+    [sql`${column} is null`, direction(column), direction(coupons.id)],
+    query.limit + 1,
+    query.offset,
+  );
   const [{ total }] = await db().select({ total: count() }).from(coupons).where(where);
   const page = rows.slice(0, query.limit);
   const last = page.at(-1);
-  const nextCursor = rows.length > query.limit && last ? encodeCursor({ sort: query.sort, order: query.order, value: cursorValue(last, query.sort), id: last.id }) : null;
+  const nextCursor =
+    rows.length > query.limit && last ? encodeCursor({ sort: query.sort, order: query.order, value: cursorValue(last, query.sort), id: last.id }) : null;
   const dominant = await dominantSwatches(page.flatMap((coupon) => coupon.layerDetails.map((layer) => layer.id)));
   return {
     coupons: page.map((coupon) => ({

@@ -1,5 +1,5 @@
-import { describeZodError } from '../http';
-import { libraryQuerySchema, type LibraryQuery } from '../../library/query';
+import { describeZodError } from '~/lib/server/http';
+import { libraryQuerySchema, type LibraryQuery } from '~/lib/library/query';
 
 /**
  * The library page's reading of its URL: a bad value is dropped with a note naming the field (the

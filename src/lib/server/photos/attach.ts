@@ -1,8 +1,8 @@
-import { checkRegions, TOO_BIG } from '../../photo-requests';
-import { MAX_UPLOAD_BYTES, type PhotoContentType, type RegionInput } from '../../photos';
-import { db } from '../db';
-import { Refused } from '../refusal';
-import { deleteObjects, getObject, headObject } from '../storage';
+import { checkRegions, TOO_BIG } from '~/lib/photo-requests';
+import { MAX_UPLOAD_BYTES, type PhotoContentType, type RegionInput } from '~/lib/photos';
+import { db } from '~/lib/server/db';
+import { Refused } from '~/lib/server/refusal';
+import { deleteObjects, getObject, headObject } from '~/lib/server/storage';
 import { decodePhoto, ImageRejected, inDecodeTurn } from './decode';
 import { deriveFiles, type DerivedFiles } from './derived-files';
 import { isUsersKey } from './keys';
@@ -27,7 +27,8 @@ export interface AttachInput {
 }
 
 const NOT_ARRIVED = 'The photo has not arrived in storage. Upload it to the URL you were given, then attach it.';
-const sizeMismatch = (stored: number, declared: number) => `The file in storage has ${stored} bytes, not the ${declared} bytes declared. Upload the photo again.`;
+const sizeMismatch = (stored: number, declared: number) =>
+  `The file in storage has ${stored} bytes, not the ${declared} bytes declared. Upload the photo again.`;
 
 /** Storage's content type without parameters, in lower case. */
 const bareType = (type: string | undefined) => (type ?? '').split(';')[0].trim().toLowerCase();
@@ -81,7 +82,8 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   if (layerFault) throw new Refused(400, layerFault.message, layerFault.field);
 
   const claim = await claimUpload(ownerId, key);
-  if (claim.status === 'unknown') throw new Refused(404, 'There is no upload with that key. Ask for an upload URL first, or the photo was attached already.', 'key');
+  if (claim.status === 'unknown')
+    throw new Refused(404, 'There is no upload with that key. Ask for an upload URL first, or the photo was attached already.', 'key');
   if (claim.status === 'expired') throw new Refused(410, 'That upload has expired. Upload the photo again.', 'key');
   const declared: Declared = { contentType: claim.contentType, byteSize: claim.byteSize };
   /** Refuses a file that does not match what was declared or is not a usable photo, and deletes it. */
@@ -97,7 +99,10 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   if (stored.size > MAX_UPLOAD_BYTES) throw await refuse(413, TOO_BIG);
   if (stored.size !== declared.byteSize) throw await refuse(422, sizeMismatch(stored.size, declared.byteSize));
   if (bareType(stored.contentType) !== declared.contentType) {
-    throw await refuse(422, `The file was stored as ${bareType(stored.contentType).slice(0, 100) || 'no type'}, not as the ${declared.contentType} declared. Upload the photo again.`);
+    throw await refuse(
+      422,
+      `The file was stored as ${bareType(stored.contentType).slice(0, 100) || 'no type'}, not as the ${declared.contentType} declared. Upload the photo again.`,
+    );
   }
   const bytes = await getObject(key);
   if (!bytes) throw new Refused(409, NOT_ARRIVED, 'key');
@@ -131,7 +136,10 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
     throw error;
   }
   if (files.originalKey !== key) {
-    await deleteObjects([key]).then(() => dropEntry(key), () => undefined);
+    await deleteObjects([key]).then(
+      () => dropEntry(key),
+      () => undefined,
+    );
   }
   return photoId;
 }

@@ -1,6 +1,6 @@
 import sharp from 'sharp';
-import type { PixelImage } from '../../analysis';
-import { kindMismatchMessage, sameImageKind, type PhotoContentType } from '../../photos';
+import type { PixelImage } from '~/lib/analysis';
+import { kindMismatchMessage, sameImageKind, type PhotoContentType } from '~/lib/photos';
 import { decodeHeic, isHeic } from './heic-worker';
 import { carriesPosition, readExif, type PhotoExif } from './metadata';
 
@@ -134,7 +134,12 @@ export async function decodeForAnalysis(buffer: Uint8Array): Promise<AnalysisIma
 /** The stored analysis copy (a lossless PNG, see derived-files.ts) back as pixels, standing for the photo's full size. */
 export async function decodeAnalysisCopy(png: Uint8Array, fullSize: { width: number; height: number }): Promise<AnalysisImage> {
   const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });
-  const pixels: PixelImage = { data: new Uint8Array(data.buffer, data.byteOffset, data.length), width: info.width, height: info.height, channels: info.channels as 3 | 4 };
+  const pixels: PixelImage = {
+    data: new Uint8Array(data.buffer, data.byteOffset, data.length),
+    width: info.width,
+    height: info.height,
+    channels: info.channels as 3 | 4,
+  };
   return { ...fullSize, pixels };
 }
 

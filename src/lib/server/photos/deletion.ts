@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { photos } from '../../../../db/schema';
-import { db } from '../db';
-import { deleteObjects, listKeys } from '../storage';
+import { db } from '~/lib/server/db';
+import { deleteObjects, listKeys } from '~/lib/server/storage';
 import { folderOf } from './keys';
 import { lockPhoto, photoTransaction, type PhotoRecord, type Transaction } from './records';
 import { dropEntry, forgetLater, type LedgerEntry } from './uploads-ledger';
@@ -12,7 +12,12 @@ import { dropEntry, forgetLater, type LedgerEntry } from './uploads-ledger';
  */
 
 /** The ledger entry that stands for a photo's folder once its row is gone. */
-const ledgerEntryOf = (photo: PhotoRecord): LedgerEntry => ({ key: photo.originalKey, ownerId: photo.ownerId, contentType: photo.contentType, byteSize: photo.byteSize });
+const ledgerEntryOf = (photo: PhotoRecord): LedgerEntry => ({
+  key: photo.originalKey,
+  ownerId: photo.ownerId,
+  contentType: photo.contentType,
+  byteSize: photo.byteSize,
+});
 
 /**
  * Within a deletion, once the photo's row is locked: a ledger entry for its folder, so the sweep

@@ -1,5 +1,5 @@
 import sharp from 'sharp';
-import type { PixelImage } from '../../analysis';
+import type { PixelImage } from '~/lib/analysis';
 import { fitInside, toPixels, type AnalysisImage, type DecodedPhoto } from './decode';
 
 /**

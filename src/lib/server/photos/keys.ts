@@ -1,5 +1,5 @@
 import { randomBytes, randomUUID } from 'node:crypto';
-import { PHOTO_TYPES, type PhotoContentType } from '../../photos';
+import { PHOTO_TYPES, type PhotoContentType } from '~/lib/photos';
 
 /**
  * Where a photo's files live. Each upload gets its own folder under the owner's prefix,
@@ -13,7 +13,8 @@ export const userPrefix = (userId: string) => `users/${userId}/`;
 
 export const isUsersKey = (userId: string, key: string) => key.startsWith(userPrefix(userId)) && !key.includes('..');
 
-export const newUploadKey = (userId: string, contentType: PhotoContentType) => `${userPrefix(userId)}photos/${randomUUID()}/original.${PHOTO_TYPES[contentType]}`;
+export const newUploadKey = (userId: string, contentType: PhotoContentType) =>
+  `${userPrefix(userId)}photos/${randomUUID()}/original.${PHOTO_TYPES[contentType]}`;
 
 /** The folder of a key: everything up to and including its last slash. */
 export const folderOf = (key: string) => key.slice(0, key.lastIndexOf('/') + 1);

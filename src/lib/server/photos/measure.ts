@@ -8,9 +8,9 @@ import {
   type Region,
   type RegionAnalysis,
   type WhiteBalance,
-} from '../../analysis';
-import type { RegionInput } from '../../photos';
-import { Refused } from '../refusal';
+} from '~/lib/analysis';
+import type { RegionInput } from '~/lib/photos';
+import { Refused } from '~/lib/server/refusal';
 import { decodeForAnalysis, type AnalysisImage } from './decode';
 
 /**

@@ -103,7 +103,9 @@ function tiffOf(exif: Buffer): Buffer {
  * sharp's metadata, which finds the EXIF of JPEG, PNG, WebP and HEIC alike.
  */
 export async function carriesPosition(buffer: Uint8Array): Promise<boolean> {
-  const metadata = await sharp(buffer).metadata().catch(() => undefined);
+  const metadata = await sharp(buffer)
+    .metadata()
+    .catch(() => undefined);
   if (!metadata) return false;
   if (metadata.xmp && /GPS(Latitude|Longitude)/.test(metadata.xmp.toString('latin1'))) return true;
   if (!metadata.exif) return false;

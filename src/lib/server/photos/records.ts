@@ -1,10 +1,10 @@
 import { eq } from 'drizzle-orm';
 import { couponLayers, coupons, photos, regions, swatches } from '../../../../db/schema';
 import type { Database } from '../../../../db/client';
-import type { Swatch } from '../../analysis';
-import type { RegionInput } from '../../photos';
-import { db } from '../db';
-import type { CouponAccess } from '../visibility';
+import type { Swatch } from '~/lib/analysis';
+import type { RegionInput } from '~/lib/photos';
+import { db } from '~/lib/server/db';
+import type { CouponAccess } from '~/lib/server/visibility';
 import type { PhotoAnalysis } from './measure';
 import { exifColumns, type PhotoExif } from './metadata';
 import type { PhotoFiles } from './store';
@@ -84,7 +84,10 @@ export interface DecodedFacts {
 
 async function insertPhoto(writer: Writer, photo: { couponId: number; ownerId: string } & DecodedFacts & PhotoFiles): Promise<number> {
   const { exif, ...rest } = photo;
-  const [{ id }] = await writer.insert(photos).values({ ...rest, ...exifColumns(exif) }).$returningId();
+  const [{ id }] = await writer
+    .insert(photos)
+    .values({ ...rest, ...exifColumns(exif) })
+    .$returningId();
   return id;
 }
 

@@ -1,7 +1,7 @@
-import type { RegionInput } from '../../photos';
-import { db } from '../db';
-import { Refused } from '../refusal';
-import { getObject } from '../storage';
+import type { RegionInput } from '~/lib/photos';
+import { db } from '~/lib/server/db';
+import { Refused } from '~/lib/server/refusal';
+import { getObject } from '~/lib/server/storage';
 import { decodeAnalysisCopy, decodeForAnalysis } from './decode';
 import { analyseRegions } from './measure';
 import { isMissingParent, layerAlloys, lockPhoto, photoExists, photoTransaction, writeRegions, type PhotoRecord } from './records';

@@ -1,5 +1,5 @@
-import type { PhotoContentType } from '../../photos';
-import { deleteObjects, presignGet, putObject } from '../storage';
+import type { PhotoContentType } from '~/lib/photos';
+import { deleteObjects, presignGet, putObject } from '~/lib/server/storage';
 import type { DerivedFiles } from './derived-files';
 import { derivedKeys } from './keys';
 

@@ -1,10 +1,10 @@
 import { and, asc, eq, gte, like, lt, sql } from 'drizzle-orm';
 import { appSettings, photos, uploads } from '../../../../db/schema';
 import type { Database } from '../../../../db/client';
-import { UPLOAD_EXPIRY_SECONDS, type PhotoContentType, type UploadTicket } from '../../photos';
-import { db } from '../db';
+import { UPLOAD_EXPIRY_SECONDS, type PhotoContentType, type UploadTicket } from '~/lib/photos';
+import { db } from '~/lib/server/db';
 import { folderOf, newUploadKey } from './keys';
-import { deleteObjects, listKeys, presignPut } from '../storage';
+import { deleteObjects, listKeys, presignPut } from '~/lib/server/storage';
 
 /**
  * The `uploads` table is the ledger of objects in storage that no photo row owns yet (or any
@@ -49,7 +49,9 @@ export async function createUpload(ownerId: string, contentType: PhotoContentTyp
   const key = newUploadKey(ownerId, contentType);
   const now = Date.now();
   const expiresAt = new Date(now + UPLOAD_EXPIRY_SECONDS * 1000);
-  await db().insert(uploads).values({ key, ownerId, contentType, byteSize, expiresAt, createdAt: new Date(now) });
+  await db()
+    .insert(uploads)
+    .values({ key, ownerId, contentType, byteSize, expiresAt, createdAt: new Date(now) });
   const open = await db()
     .select({ expiresAt: uploads.expiresAt })
     .from(uploads)
@@ -179,7 +181,10 @@ export const SWEEP_EVERY_MINUTES = 10;
  * conditional UPDATE of a stamp in app_settings, so one process wins however many try.
  */
 export async function sweepIfDue(now = Date.now()): Promise<SweepResult | null> {
-  await db().insert(appSettings).ignore().values({ key: SWEEP_SETTING, value: new Date(0).toISOString() });
+  await db()
+    .insert(appSettings)
+    .ignore()
+    .values({ key: SWEEP_SETTING, value: new Date(0).toISOString() });
   const due = new Date(now - (SWEEP_EVERY_MINUTES * 60_000 - 5_000)).toISOString();
   const claimed = await db()
     .update(appSettings)

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { tokenSchema } from '../../../lib/account';
-import { confirmEmail } from '../../../lib/server/accounts';
-import { json, parseBody } from '../../../lib/server/http';
-import { startSession } from '../../../lib/server/session';
-import { tokenProblem } from '../../../lib/server/token-messages';
+import { tokenSchema } from '~/lib/account';
+import { confirmEmail } from '~/lib/server/accounts';
+import { json, parseBody } from '~/lib/server/http';
+import { startSession } from '~/lib/server/session';
+import { tokenProblem } from '~/lib/server/token-messages';
 
 export const POST: APIRoute = async (context) => {
   const input = await parseBody(context.request, z.object({ token: tokenSchema }));

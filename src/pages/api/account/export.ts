@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { exportAccount } from '../../../lib/server/account-data';
-import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { json } from '../../../lib/server/http';
+import { exportAccount } from '~/lib/server/account-data';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { json } from '~/lib/server/http';
 
 export const GET: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);

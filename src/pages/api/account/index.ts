@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { changeNameSchema, deleteAccountSchema } from '../../../lib/account';
-import { deleteAccount } from '../../../lib/server/account-data';
-import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { json, parseBody } from '../../../lib/server/http';
-import { endSession } from '../../../lib/server/session';
-import { findUserById, updateName } from '../../../lib/server/users';
+import { changeNameSchema, deleteAccountSchema } from '~/lib/account';
+import { deleteAccount } from '~/lib/server/account-data';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { json, parseBody } from '~/lib/server/http';
+import { endSession } from '~/lib/server/session';
+import { findUserById, updateName } from '~/lib/server/users';
 
 /** My account as the database has it (never the password hash). */
 export const GET: APIRoute = async (context) => {

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { changePasswordSchema } from '../../../lib/account';
-import { changePassword } from '../../../lib/server/accounts';
-import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { json, parseBody, problem, tooManyAttempts } from '../../../lib/server/http';
-import { startSession } from '../../../lib/server/session';
+import { changePasswordSchema } from '~/lib/account';
+import { changePassword } from '~/lib/server/accounts';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { json, parseBody, problem, tooManyAttempts } from '~/lib/server/http';
+import { startSession } from '~/lib/server/session';
 
 /** Changes the password; every other session ends, and this browser gets a new one. */
 export const POST: APIRoute = async (context) => {

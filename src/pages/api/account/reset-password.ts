@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { resetPasswordSchema } from '../../../lib/account';
-import { resetPassword } from '../../../lib/server/accounts';
-import { json, parseBody } from '../../../lib/server/http';
-import { startSession } from '../../../lib/server/session';
-import { tokenProblem } from '../../../lib/server/token-messages';
+import { resetPasswordSchema } from '~/lib/account';
+import { resetPassword } from '~/lib/server/accounts';
+import { json, parseBody } from '~/lib/server/http';
+import { startSession } from '~/lib/server/session';
+import { tokenProblem } from '~/lib/server/token-messages';
 
 export const POST: APIRoute = async (context) => {
   const input = await parseBody(context.request, resetPasswordSchema);

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { json, wantsHtml } from '../../../lib/server/http';
-import { closeAllSessions, endSession } from '../../../lib/server/session';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { json, wantsHtml } from '~/lib/server/http';
+import { closeAllSessions, endSession } from '~/lib/server/session';
 
 /** Ends every session of the signed-in person, on every device, this one included. */
 export const POST: APIRoute = async (context) => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { json, wantsHtml } from '../../../lib/server/http';
-import { endSession } from '../../../lib/server/session';
+import { json, wantsHtml } from '~/lib/server/http';
+import { endSession } from '~/lib/server/session';
 
 /** Ends this session for good, not just its cookie. */
 export const POST: APIRoute = async (context) => {

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { signUpSchema } from '../../../lib/account';
-import { signUp } from '../../../lib/server/accounts';
-import { clientAddress } from '../../../lib/server/client-address';
-import { json, parseBody, tooManyAttempts } from '../../../lib/server/http';
+import { signUpSchema } from '~/lib/account';
+import { signUp } from '~/lib/server/accounts';
+import { clientAddress } from '~/lib/server/client-address';
+import { json, parseBody, tooManyAttempts } from '~/lib/server/http';
 
 export const POST: APIRoute = async (context) => {
   const input = await parseBody(context.request, signUpSchema);

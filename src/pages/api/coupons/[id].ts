@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { couponInputSchema } from '../../../lib/coupons';
-import { checkAccess, isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { couponFromRoute, couponView, deleteCoupon, findCoupon, heatRecordOf, updateCoupon } from '../../../lib/server/coupons';
-import { json, parseJson, parseValue, problem } from '../../../lib/server/http';
+import { couponInputSchema } from '~/lib/coupons';
+import { checkAccess, isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { couponFromRoute, couponView, deleteCoupon, findCoupon, heatRecordOf, updateCoupon } from '~/lib/server/coupons';
+import { json, parseJson, parseValue, problem } from '~/lib/server/http';
 
 export const GET: APIRoute = async (context) => {
   const coupon = await couponFromRoute(context.params);

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { couponInputSchema } from '../../../lib/coupons';
-import { isResponse, requireCurrentUser } from '../../../lib/server/authorise';
-import { couponView, createCoupon, findCoupon } from '../../../lib/server/coupons';
-import { libraryQuerySchema } from '../../../lib/library/query';
-import { BadCursor, listLibrary } from '../../../lib/server/library/list';
-import { json, parseJson, parseValue, problem } from '../../../lib/server/http';
+import { couponInputSchema } from '~/lib/coupons';
+import { isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { couponView, createCoupon, findCoupon } from '~/lib/server/coupons';
+import { libraryQuerySchema } from '~/lib/library/query';
+import { BadCursor, listLibrary } from '~/lib/server/library/list';
+import { json, parseJson, parseValue, problem } from '~/lib/server/http';
 
 /**
  * Coupons the caller may see (visitors: public ones), filtered, sorted and paged as the library's

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { libraryQuerySchema } from '../../../lib/library/query';
-import { json, parseValue, problem } from '../../../lib/server/http';
-import { exportLibrary, libraryCsv, libraryJson } from '../../../lib/server/library/export';
+import { libraryQuerySchema } from '~/lib/library/query';
+import { json, parseValue, problem } from '~/lib/server/http';
+import { exportLibrary, libraryCsv, libraryJson } from '~/lib/server/library/export';
 
 const formatSchema = z.object({ format: z.enum(['csv', 'json'], { error: 'Ask for format=csv or format=json.' }) });
 
@@ -16,7 +16,8 @@ export const GET: APIRoute = async (context) => {
   const viewer = context.locals.user;
   if (query.data.mineOnly && !viewer) return problem(401, 'Sign in to export your own coupons.');
   const { coupons, truncated } = await exportLibrary(viewer, query.data);
-  if (chosen.data.format === 'json') return json(libraryJson(coupons, truncated), 200, { 'content-disposition': 'attachment; filename="oxbloom-library.json"' });
+  if (chosen.data.format === 'json')
+    return json(libraryJson(coupons, truncated), 200, { 'content-disposition': 'attachment; filename="oxbloom-library.json"' });
   return new Response(libraryCsv(coupons), {
     headers: {
       'content-type': 'text/csv; charset=utf-8; header=present',

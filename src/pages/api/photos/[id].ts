@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { checkAccess, isResponse } from '../../../lib/server/authorise';
-import { photoFromRoute, photoToChange } from '../../../lib/server/coupons';
-import { json, problem } from '../../../lib/server/http';
-import { deletePhoto } from '../../../lib/server/photos/deletion';
-import { photoView } from '../../../lib/server/photos/views';
+import { checkAccess, isResponse } from '~/lib/server/authorise';
+import { photoFromRoute, photoToChange } from '~/lib/server/coupons';
+import { json, problem } from '~/lib/server/http';
+import { deletePhoto } from '~/lib/server/photos/deletion';
+import { photoView } from '~/lib/server/photos/views';
 
 export const GET: APIRoute = async (context) => {
   const found = await photoFromRoute(context.params);

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { colourSearchSchema } from '../../../lib/library/colour-search';
-import { json, parseValue } from '../../../lib/server/http';
-import { searchSwatches } from '../../../lib/server/library/colour-search';
+import { colourSearchSchema } from '~/lib/library/colour-search';
+import { json, parseValue } from '~/lib/server/http';
+import { searchSwatches } from '~/lib/server/library/colour-search';
 
 /** Swatches of coupons the caller may see within a ΔE00 limit of a colour, nearest first. */
 export const GET: APIRoute = async (context) => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { json, parseJson, problem } from '../../../lib/server/http';
-import { estimateRequestSchema, estimateResponse, lookUpModel } from '../../../lib/tint';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { estimateRequestSchema, estimateResponse, lookUpModel } from '~/lib/tint';
 
 /** Candidate oxide thicknesses for a measured colour, one per interference order that fits, best first. */
 export const POST: APIRoute = async ({ request }) => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { json, parseJson, problem } from '../../../lib/server/http';
-import { ladderRequestSchema, ladderResponse, lookUpModel } from '../../../lib/tint';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { ladderRequestSchema, ladderResponse, lookUpModel } from '~/lib/tint';
 
 /** The tint ladder of an alloy: colour and tint band against oxide thickness. */
 export const POST: APIRoute = async ({ request }) => {

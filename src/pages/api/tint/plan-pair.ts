@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { json, parseJson, problem } from '../../../lib/server/http';
-import { libraryFitFor } from '../../../lib/server/tint-fit';
-import { lookUpModel, planPairRequestSchema, planPairResponse } from '../../../lib/tint';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { libraryFitFor } from '~/lib/server/tint-fit';
+import { lookUpModel, planPairRequestSchema, planPairResponse } from '~/lib/tint';
 
 /**
  * One heat for a two-alloy laminate: the best match to a wanted colour pair, or the most contrast.

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { json, parseJson, problem } from '../../../lib/server/http';
-import { libraryFitFor } from '../../../lib/server/tint-fit';
-import { lookUpModel, predictRequestSchema, predictTint } from '../../../lib/tint';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { libraryFitFor } from '~/lib/server/tint-fit';
+import { lookUpModel, predictRequestSchema, predictTint } from '~/lib/tint';
 
 /**
  * The tint band of a planned heat or anodizing run. Signed-in people get the fit to their library

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { changeRoleSchema } from '../../../../lib/account';
-import { isResponse, notFound, requireRole } from '../../../../lib/server/authorise';
-import { json, parseBody, parseValue, problem } from '../../../../lib/server/http';
-import { changeRole, findUserById } from '../../../../lib/server/users';
+import { changeRoleSchema } from '~/lib/account';
+import { isResponse, notFound, requireRole } from '~/lib/server/authorise';
+import { json, parseBody, parseValue, problem } from '~/lib/server/http';
+import { changeRole, findUserById } from '~/lib/server/users';
 
 export const PATCH: APIRoute = async (context) => {
   const admin = await requireRole(context, 'admin');

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { isResponse, requireRole } from '../../../../lib/server/authorise';
-import { json } from '../../../../lib/server/http';
-import { listUsers } from '../../../../lib/server/users';
+import { isResponse, requireRole } from '~/lib/server/authorise';
+import { json } from '~/lib/server/http';
+import { listUsers } from '~/lib/server/users';
 
 export const GET: APIRoute = async (context) => {
   const admin = await requireRole(context, 'admin');

@@ -1,12 +1,12 @@
 import type { APIRoute } from 'astro';
-import { attachRequestSchema } from '../../../../lib/photo-requests';
-import { checkAccess, isResponse, requireCurrentUser } from '../../../../lib/server/authorise';
-import { couponFromRoute } from '../../../../lib/server/coupons';
-import { json, parseJson, problem } from '../../../../lib/server/http';
-import { attachPhoto } from '../../../../lib/server/photos/attach';
-import { findPhoto } from '../../../../lib/server/photos/records';
-import { photoView, photoViews } from '../../../../lib/server/photos/views';
-import { refusalResponse } from '../../../../lib/server/refusal';
+import { attachRequestSchema } from '~/lib/photo-requests';
+import { checkAccess, isResponse, requireCurrentUser } from '~/lib/server/authorise';
+import { couponFromRoute } from '~/lib/server/coupons';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { attachPhoto } from '~/lib/server/photos/attach';
+import { findPhoto } from '~/lib/server/photos/records';
+import { photoView, photoViews } from '~/lib/server/photos/views';
+import { refusalResponse } from '~/lib/server/refusal';
 
 /** The coupon's photos with regions and swatches, for anyone who may see the coupon. */
 export const GET: APIRoute = async (context) => {

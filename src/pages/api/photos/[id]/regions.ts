@@ -1,12 +1,12 @@
 import type { APIRoute } from 'astro';
-import { checkRegions, regionsRequestSchema } from '../../../../lib/photo-requests';
-import { isResponse } from '../../../../lib/server/authorise';
-import { photoToChange } from '../../../../lib/server/coupons';
-import { json, parseJson, problem } from '../../../../lib/server/http';
-import { layerIdsOf } from '../../../../lib/server/photos/records';
-import { reanalysePhoto } from '../../../../lib/server/photos/remeasure';
-import { photoView } from '../../../../lib/server/photos/views';
-import { refusalResponse } from '../../../../lib/server/refusal';
+import { checkRegions, regionsRequestSchema } from '~/lib/photo-requests';
+import { isResponse } from '~/lib/server/authorise';
+import { photoToChange } from '~/lib/server/coupons';
+import { json, parseJson, problem } from '~/lib/server/http';
+import { layerIdsOf } from '~/lib/server/photos/records';
+import { reanalysePhoto } from '~/lib/server/photos/remeasure';
+import { photoView } from '~/lib/server/photos/views';
+import { refusalResponse } from '~/lib/server/refusal';
 
 /** Replaces the photo's regions and measures it again; answers the photo with its new swatches. */
 export const PUT: APIRoute = async (context) => {
