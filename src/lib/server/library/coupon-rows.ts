@@ -1,7 +1,7 @@
-import { asc, eq, getTableColumns, inArray, type SQL } from 'drizzle-orm';
-import { alloys, couponLayers, coupons, users } from '../../../../db/schema';
-import type { CouponLayer, CouponRecord } from '../coupons';
-import { db } from '../db';
+import { eq, getTableColumns, type SQL } from 'drizzle-orm';
+import { coupons, users } from '../../../../db/schema';
+import { layersOf, withLayers, type CouponRecord } from '~/lib/server/coupons';
+import { db } from '~/lib/server/db';
 
 export type { CouponRecord };
 
@@ -19,21 +19,5 @@ export async function listCouponRows(where: SQL | undefined, orderBy: SQL[], lim
     .limit(limit)
     .offset(offset);
   const layers = await layersOf(rows.map((row) => row.id));
-  return rows.map((row) => {
-    const details = layers.get(row.id) ?? [];
-    return { ...row, layers: details.map((layer) => layer.alloy), layerDetails: details };
-  });
-}
-
-async function layersOf(couponIds: number[]): Promise<Map<number, CouponLayer[]>> {
-  const byCoupon = new Map<number, CouponLayer[]>();
-  if (couponIds.length === 0) return byCoupon;
-  const rows = await db()
-    .select({ couponId: couponLayers.couponId, id: couponLayers.id, position: couponLayers.position, alloy: alloys.slug, alloyName: alloys.name })
-    .from(couponLayers)
-    .innerJoin(alloys, eq(alloys.id, couponLayers.alloyId))
-    .where(inArray(couponLayers.couponId, couponIds))
-    .orderBy(asc(couponLayers.couponId), asc(couponLayers.position));
-  for (const { couponId, ...layer } of rows) byCoupon.set(couponId, [...(byCoupon.get(couponId) ?? []), layer]);
-  return byCoupon;
+  return rows.map((row) => withLayers(row, layers.get(row.id)));
 }
