@@ -1,4 +1,8 @@
-/** Bucket CORS: the app's origins may PUT, GET and HEAD directly, and read the ETag. */
+// @ts-check
+/**
+ * Bucket CORS: the app's origins may PUT, GET and HEAD directly, and read the ETag.
+ * @param {string[]} origins
+ */
 export function corsConfiguration(origins) {
   const rules = origins
     .map(

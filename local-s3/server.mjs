@@ -1,3 +1,4 @@
+// @ts-check
 // The local S3-compatible store (s3rver) for photos. Started by scripts/start.mjs and
 // scripts/test.mjs; any S3-compatible service replaces it in production.
 // Reads: LOCAL_S3_PORT, LOCAL_S3_DIR, LOCAL_S3_BUCKET, LOCAL_S3_ORIGINS (comma-separated).

@@ -1,3 +1,4 @@
+// @ts-check
 // Runs every benchmark in scripts/bench/ (each prints its own table) one after another.
 import { readdirSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';

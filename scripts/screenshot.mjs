@@ -1,3 +1,4 @@
+// @ts-check
 // Takes screenshots of pages in Debian's Chromium, for looking at what we built:
 //   node scripts/screenshot.mjs http://127.0.0.1:4321/ [more URLs] [--out DIR] [--width 390]
 // Writes one PNG per URL and width (desk 1280 and phone 390 unless --width is given).
@@ -7,6 +8,12 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 
 const args = process.argv.slice(2);
+/**
+ * @template {string | null} F
+ * @param {string} name
+ * @param {F} fallback
+ * @returns {string | F}
+ */
 const option = (name, fallback) => {
   const index = args.indexOf(name);
   if (index === -1) return fallback;

@@ -1,3 +1,4 @@
+// @ts-check
 // `npm start`: install what is missing, start the private services, migrate, seed the demo on
 // first run, build, and serve on http://127.0.0.1:4321. Ctrl-C (or `npm run stop`) stops it all.
 // `npm start -- --dev` serves with Astro's dev server instead of a build.
@@ -9,6 +10,7 @@ import { SetupError, isAlive, readPid, requireFreePort, waitForPort } from './se
 
 const started = Date.now();
 const devServer = process.argv.includes('--dev');
+/** @type {import('./services/profile.mjs').Profile} */
 let profile;
 
 async function main() {

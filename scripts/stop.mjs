@@ -1,3 +1,4 @@
+// @ts-check
 // `npm run stop`: stops everything `npm start` started, by pid file.
 import path from 'node:path';
 import { loadProfile } from './services/profile.mjs';

@@ -1,3 +1,4 @@
+// @ts-check
 // `npm test`: the whole suite on its own services (other ports and data than `npm start`, so both
 // can run at once). Installs what is missing, type-checks, starts a fresh MariaDB database, the S3
 // fake and the mail fake, migrates, seeds the demo, builds and starts the app, runs vitest, stops.
@@ -12,8 +13,10 @@ import { SetupError, isAlive, readPid } from './services/processes.mjs';
 const started = Date.now();
 const vitestArgs = process.argv.slice(2);
 const seconds = () => `${((Date.now() - started) / 1000).toFixed(1)} s`;
+/** @param {string} what */
 const step = (what) => console.log(`[test] ${what} (${seconds()})`);
 
+/** @param {string} reportFile */
 function summarise(reportFile) {
   if (!existsSync(reportFile)) return;
   const report = JSON.parse(readFileSync(reportFile, 'utf8'));
@@ -21,6 +24,12 @@ function summarise(reportFile) {
   console.log(`\ntests: ${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped`);
 }
 
+/**
+ * @param {string} what
+ * @param {string[]} script path of the checker under node_modules
+ * @param {string[]} args
+ * @param {string} failure
+ */
 function runChecker(what, script, args, failure) {
   step(what);
   const check = spawnSync(process.execPath, [path.join(root, 'node_modules', ...script), ...args], {

@@ -1,3 +1,4 @@
+// @ts-check
 // Starts and stops the private services of one profile: MariaDB, the S3 fake and the mail fake.
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
@@ -6,9 +7,20 @@ import { startMariadb, prepareDatabase, stopMariadb } from './mariadb.mjs';
 import { isAlive, readPid, requireFreePort, startBackground, stopByPidFile, waitForPort } from './processes.mjs';
 import { root } from './profile.mjs';
 
+/** @typedef {import('./profile.mjs').Profile} Profile */
+
+/** @param {Profile} profile @param {string} name */
 const pidFile = (profile, name) => path.join(profile.runDir, `${name}.pid`);
+/** @param {Profile} profile @param {string} name */
 const logFile = (profile, name) => path.join(profile.runDir, `${name}.log`);
 
+/**
+ * @param {Profile} profile
+ * @param {string} name
+ * @param {string} script
+ * @param {Record<string, string>} env
+ * @param {[number, string, string][]} ports port, its variable, and what listens there
+ */
 async function startNodeService(profile, name, script, env, ports) {
   const existing = readPid(pidFile(profile, name));
   if (existing && isAlive(existing)) return;
@@ -22,6 +34,10 @@ async function startNodeService(profile, name, script, env, ports) {
   for (const [port, , what] of ports) await waitForPort(port, { pid, what });
 }
 
+/**
+ * @param {Profile} profile
+ * @param {{ freshDatabase?: boolean }} [options]
+ */
 export async function startServices(profile, { freshDatabase = false } = {}) {
   mkdirSync(profile.runDir, { recursive: true });
   await startMariadb(profile);
@@ -47,7 +63,11 @@ export async function startServices(profile, { freshDatabase = false } = {}) {
   );
 }
 
-/** Starts the built app (`node <outDir>/server/entry.mjs`) in the background. */
+/**
+ * Starts the built app (`node <outDir>/server/entry.mjs`) in the background.
+ * @param {Profile} profile
+ * @param {Record<string, string>} env
+ */
 export async function startApp(profile, env) {
   await requireFreePort(profile.ports.app, profile.portVariables.app, 'the app');
   const pid = startBackground(process.execPath, [path.join(profile.outDir, 'server', 'entry.mjs')], {
@@ -60,6 +80,7 @@ export async function startApp(profile, env) {
   return pid;
 }
 
+/** @param {Profile} profile */
 export async function stopServices(profile) {
   const stopped = [];
   for (const name of ['app', 'mail', 's3']) {
@@ -69,7 +90,10 @@ export async function stopServices(profile) {
   return stopped;
 }
 
-/** A random secret for signing sessions, made once per profile and kept with its data. */
+/**
+ * A random secret for signing sessions, made once per profile and kept with its data.
+ * @param {Profile} profile
+ */
 export function authSecret(profile) {
   const file = path.join(profile.dataDir, 'auth-secret');
   if (!existsSync(file)) {

@@ -1,3 +1,4 @@
+// @ts-check
 // The local SMTP fake: accepts every message on loopback, keeps each as an .eml file in
 // MAIL_FAKE_DIR, and shows them on a small inbox page (MAIL_FAKE_INBOX_PORT) on loopback. Each SMTP
 // session is logged when it closes to MAIL_FAKE_DIR/sessions.log, as "<time> mail" or, for a
@@ -29,6 +30,7 @@ const smtp = new SMTPServer({
     appendFileSync(sessionLog, `${Date.now()} ${sentMail.delete(session.id) ? 'mail' : 'probe'}\n`);
   },
   onData(stream, _session, callback) {
+    /** @type {Buffer[]} */
     const chunks = [];
     stream.on('data', (chunk) => chunks.push(chunk));
     stream.on('end', () => {
@@ -42,7 +44,9 @@ const smtp = new SMTPServer({
 smtp.on('error', (error) => console.error('mail fake:', error.message));
 smtp.listen(smtpPort, '127.0.0.1');
 
-const escape = (text) => String(text ?? '').replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
+/** @param {unknown} text */
+const escape = (text) =>
+  String(text ?? '').replace(/[&<>"]/g, (c) => /** @type {Record<string, string>} */ ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
 
 async function inboxPage() {
   const files = readdirSync(directory)
@@ -53,15 +57,18 @@ async function inboxPage() {
   const rows = [];
   for (const file of files) {
     const mail = await simpleParser(readFileSync(path.join(directory, file)));
-    rows.push(`<li><a href="/messages/${escape(file)}">${escape(mail.subject)}</a> to ${escape(mail.to?.text)} · ${escape(mail.date?.toISOString())}</li>`);
+    rows.push(
+      `<li><a href="/messages/${escape(file)}">${escape(mail.subject)}</a> to ${escape(/** @type {{ text?: string } | undefined} */ (mail.to)?.text)} · ${escape(mail.date?.toISOString())}</li>`,
+    );
   }
   return `<!doctype html><meta charset="utf-8"><title>Oxbloom local inbox</title><h1>Captured mail (${files.length})</h1><ul>${rows.join('')}</ul>`;
 }
 
+/** @param {string} file */
 async function messagePage(file) {
   const mail = await simpleParser(readFileSync(path.join(directory, file)));
   const body = mail.html || `<pre>${escape(mail.text)}</pre>`;
-  return `<!doctype html><meta charset="utf-8"><title>${escape(mail.subject)}</title><p><a href="/">Inbox</a></p><h1>${escape(mail.subject)}</h1><p>To ${escape(mail.to?.text)}</p>${body}`;
+  return `<!doctype html><meta charset="utf-8"><title>${escape(mail.subject)}</title><p><a href="/">Inbox</a></p><h1>${escape(mail.subject)}</h1><p>To ${escape(/** @type {{ text?: string } | undefined} */ (mail.to)?.text)}</p>${body}`;
 }
 
 const inbox = http.createServer(async (request, response) => {

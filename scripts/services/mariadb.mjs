@@ -1,3 +1,4 @@
+// @ts-check
 // A private MariaDB for one profile: its own data folder, loopback only, stopped by pid file.
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
@@ -5,17 +6,24 @@ import { userInfo } from 'node:os';
 import path from 'node:path';
 import { SetupError, isAlive, readPid, requireFreePort, sleep, startBackground, stopByPidFile } from './processes.mjs';
 
+/** @typedef {import('./profile.mjs').Profile} Profile */
+
+/** @param {Profile} profile */
 const pidFileOf = (profile) => path.join(profile.runDir, 'mariadb.pid');
+/** @param {Profile} profile */
 const logFileOf = (profile) => path.join(profile.runDir, 'mariadb.log');
 
+/** @param {Profile} profile @param {string} sql */
 function client(profile, sql) {
   return spawnSync('mariadb', ['--no-defaults', `--socket=${profile.socket}`, '-u', userInfo().username, '-e', sql], { encoding: 'utf8' });
 }
 
+/** @param {Profile} profile */
 function ping(profile) {
   return spawnSync('mariadb-admin', ['--no-defaults', `--socket=${profile.socket}`, '-u', userInfo().username, 'ping'], { stdio: 'ignore' }).status === 0;
 }
 
+/** @param {Profile} profile */
 function lastLogLines(profile) {
   try {
     return readFileSync(logFileOf(profile), 'utf8').trim().split('\n').slice(-3).join(' | ');
@@ -24,6 +32,7 @@ function lastLogLines(profile) {
   }
 }
 
+/** @param {Profile} profile */
 export async function startMariadb(profile) {
   const pidFile = pidFileOf(profile);
   const running = readPid(pidFile);
@@ -67,7 +76,11 @@ export async function startMariadb(profile) {
   return { reused: false };
 }
 
-/** Creates the app's database and user (idempotent); `fresh` drops the database first. */
+/**
+ * Creates the app's database and user (idempotent); `fresh` drops the database first.
+ * @param {Profile} profile
+ * @param {{ fresh?: boolean }} [options]
+ */
 export function prepareDatabase(profile, { fresh = false } = {}) {
   const { database, databaseUser: user, databasePassword: password } = profile;
   const sql = [
@@ -82,6 +95,7 @@ export function prepareDatabase(profile, { fresh = false } = {}) {
   if (result.status !== 0) throw new SetupError(`Could not create the database: ${result.stderr.trim()}`);
 }
 
+/** @param {Profile} profile */
 export function stopMariadb(profile) {
   return stopByPidFile(pidFileOf(profile), 60_000);
 }

@@ -1,3 +1,4 @@
+// @ts-check
 // Starting and stopping background services by pid file, and checking ports before we start.
 import { spawn } from 'node:child_process';
 import { existsSync, mkdirSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -7,24 +8,32 @@ import path from 'node:path';
 /** A failure the user can fix: printed as one line, no stack trace. */
 export class SetupError extends Error {}
 
+/** @param {number} ms */
 export const sleep = (ms) => new Promise((resolve) => setTimeout(resolve, ms));
 
+/** @param {number | undefined} pid undefined (a process that never started) is not alive */
 export function isAlive(pid) {
   try {
-    process.kill(pid, 0);
+    // An undefined pid makes process.kill throw, which answers false below.
+    process.kill(/** @type {number} */ (pid), 0);
     return true;
   } catch {
     return false;
   }
 }
 
+/** @param {string} pidFile */
 export function readPid(pidFile) {
   if (!existsSync(pidFile)) return null;
   const pid = Number(readFileSync(pidFile, 'utf8').trim());
   return Number.isInteger(pid) && pid > 0 ? pid : null;
 }
 
-/** Resolves true when nothing listens on host:port. */
+/**
+ * Resolves true when nothing listens on host:port.
+ * @param {number} port
+ * @returns {Promise<boolean>}
+ */
 export function isPortFree(port, host = '127.0.0.1') {
   return new Promise((resolve) => {
     const server = net.createServer();
@@ -34,13 +43,22 @@ export function isPortFree(port, host = '127.0.0.1') {
   });
 }
 
+/**
+ * @param {number} port
+ * @param {string} variable
+ * @param {string} what
+ */
 export async function requireFreePort(port, variable, what) {
   if (!(await isPortFree(port))) {
     throw new SetupError(`Port ${port} for ${what} is already in use: stop what uses it, or set ${variable} to a free port.`);
   }
 }
 
-/** Resolves when host:port accepts a TCP connection, or rejects after `timeoutMs`. */
+/**
+ * Resolves when host:port accepts a TCP connection, or rejects after `timeoutMs`.
+ * @param {number} port
+ * @param {{ host?: string, timeoutMs?: number, pid?: number, what?: string }} [options]
+ */
 export async function waitForPort(port, { host = '127.0.0.1', timeoutMs = 20_000, pid, what } = {}) {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
@@ -62,6 +80,9 @@ export async function waitForPort(port, { host = '127.0.0.1', timeoutMs = 20_000
 /**
  * Starts a detached background process with its output in `logFile` and its pid in `pidFile`,
  * so it can be stopped later by `stopByPidFile` even from another command.
+ * @param {string} command
+ * @param {string[]} args
+ * @param {{ pidFile: string, logFile: string, env?: Record<string, string | undefined>, cwd?: string }} options
  */
 export function startBackground(command, args, { pidFile, logFile, env, cwd }) {
   mkdirSync(path.dirname(pidFile), { recursive: true });
@@ -73,7 +94,10 @@ export function startBackground(command, args, { pidFile, logFile, env, cwd }) {
   return child.pid;
 }
 
-/** TERM, wait up to `graceMs`, then KILL; removes the pid file. */
+/**
+ * TERM, wait up to `graceMs`, then KILL; removes the pid file.
+ * @param {string} pidFile
+ */
 export async function stopByPidFile(pidFile, graceMs = 15_000) {
   const pid = readPid(pidFile);
   if (pid && isAlive(pid)) {

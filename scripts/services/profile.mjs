@@ -1,3 +1,4 @@
+// @ts-check
 // Where each run of the app keeps its services: `dev` for `npm start`, `test` for `npm test`.
 // Both can run at once: other ports, other data folders. Ports come from environment variables.
 import { fileURLToPath } from 'node:url';
@@ -23,6 +24,11 @@ const defaults = {
   },
 };
 
+/**
+ * @param {Record<string, string | undefined>} environment
+ * @param {string} variable
+ * @param {number} fallback
+ */
 function readPort(environment, variable, fallback) {
   const raw = environment[variable];
   if (raw === undefined || raw === '') return fallback;
@@ -40,7 +46,7 @@ function readPort(environment, variable, fallback) {
 export function loadProfile(name, environment = process.env) {
   const ports = /** @type {Record<"app" | "db" | "s3" | "smtp" | "inbox", number>} */ ({});
   const portVariables = /** @type {Record<"app" | "db" | "s3" | "smtp" | "inbox", string>} */ ({});
-  for (const [service, [variable, fallback]] of Object.entries(defaults[name])) {
+  for (const [service, [variable, fallback]] of /** @type {[keyof typeof ports, [string, number]][]} */ (Object.entries(defaults[name]))) {
     ports[service] = readPort(environment, variable, fallback);
     portVariables[service] = variable;
   }
@@ -71,7 +77,13 @@ export function loadProfile(name, environment = process.env) {
   };
 }
 
-/** The environment the app, migrations and seed read (see src/lib/server/config.ts). */
+/** @typedef {ReturnType<typeof loadProfile>} Profile */
+
+/**
+ * The environment the app, migrations and seed read (see src/lib/server/config.ts).
+ * @param {Profile} profile
+ * @param {string} authSecret
+ */
 export function appEnvironment(profile, authSecret) {
   const { host, ports } = profile;
   return {

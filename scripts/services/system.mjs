@@ -1,3 +1,4 @@
+// @ts-check
 // Installs what a fresh Debian machine lacks: Debian packages, then the node modules.
 import { spawnSync } from 'node:child_process';
 import { existsSync, statSync } from 'node:fs';
@@ -5,10 +6,17 @@ import path from 'node:path';
 import { SetupError } from './processes.mjs';
 import { root } from './profile.mjs';
 
+/** @param {string} name */
 function hasCommand(name) {
   return spawnSync('sh', ['-c', `command -v ${name}`], { stdio: 'ignore' }).status === 0 || existsSync(`/usr/sbin/${name}`) || existsSync(`/usr/bin/${name}`);
 }
 
+/**
+ * @param {string} command
+ * @param {string[]} args
+ * @param {string} what
+ * @param {import('node:child_process').SpawnSyncOptions} [options]
+ */
 function run(command, args, what, options = {}) {
   const result = spawnSync(command, args, { stdio: 'inherit', cwd: root, ...options });
   if (result.error || result.status !== 0) {
@@ -19,6 +27,7 @@ function run(command, args, what, options = {}) {
 /**
  * `needs` maps a command to the Debian package that provides it. Missing ones are installed with
  * apt-get (as root, or through sudo when that works without a password).
+ * @param {Record<string, string>} needs
  */
 export function ensureDebianPackages(needs) {
   const missing = [

@@ -1,3 +1,4 @@
+// @ts-check
 // The steps between "services are up" and "the app serves": migrate, seed, build.
 import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
@@ -5,15 +6,24 @@ import path from 'node:path';
 import { SetupError } from './processes.mjs';
 import { root } from './profile.mjs';
 
+/** @typedef {import('./profile.mjs').Profile} Profile */
+/** @typedef {Record<string, string | undefined>} Env */
+
 const tsx = path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
 const astro = path.join(root, 'node_modules', 'astro', 'astro.js');
 
+/** @param {string[]} args @param {Env} env @param {string} what */
 function runNode(args, env, what) {
   const result = spawnSync(process.execPath, args, { stdio: 'inherit', cwd: root, env: { ...process.env, ...env } });
   if (result.status !== 0) throw new SetupError(`${what} failed (exit ${result.status}); see the lines above.`);
 }
 
-/** Runs a step whose failure is told in its last line of stderr; that line becomes ours. */
+/**
+ * Runs a step whose failure is told in its last line of stderr; that line becomes ours.
+ * @param {string[]} args
+ * @param {Env} env
+ * @param {string} what
+ */
 function runStep(args, env, what) {
   const result = spawnSync(process.execPath, args, { stdio: ['ignore', 'inherit', 'pipe'], cwd: root, env: { ...process.env, ...env }, encoding: 'utf8' });
   const lines = (result.stderr ?? '').trim().split('\n').filter(Boolean);
@@ -21,9 +31,15 @@ function runStep(args, env, what) {
   for (const line of lines) process.stderr.write(`${line}\n`);
 }
 
+/** @param {Env} env */
 export const migrate = (env) => runStep([tsx, 'scripts/migrate.ts'], env, 'Applying the database migrations');
+/** @param {Env} env */
 export const seed = (env) => runStep([tsx, 'scripts/seed/seed.ts'], env, 'Seeding the database');
 
+/**
+ * @param {string} entry
+ * @returns {number}
+ */
 function newestChange(entry) {
   if (!existsSync(entry)) return 0;
   const stat = statSync(entry);
@@ -33,7 +49,11 @@ function newestChange(entry) {
   return newest;
 }
 
-/** Builds the app into profile.outDir unless the last build is newer than every source file. */
+/**
+ * Builds the app into profile.outDir unless the last build is newer than every source file.
+ * @param {Profile} profile
+ * @param {Env} env
+ */
 export function build(profile, env) {
   const stamp = path.join(profile.outDir, '.built');
   const sources = ['src', 'public', 'db', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json'].map((entry) => path.join(root, entry));
