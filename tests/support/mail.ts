@@ -8,8 +8,8 @@ const mailDir = () => {
   return dir;
 };
 
-/** Every captured message to `to`, oldest first (decoded: subjects, quoted-printable bodies). */
-export async function mailTo(to: string): Promise<ParsedMail[]> {
+/** Every captured message, oldest first, with its recipients exactly as written. */
+async function capturedMail(): Promise<CapturedMail[]> {
   let files: string[] = [];
   try {
     files = readdirSync(mailDir())
@@ -18,16 +18,22 @@ export async function mailTo(to: string): Promise<ParsedMail[]> {
   } catch {
     return [];
   }
-  const messages: ParsedMail[] = [];
+  const found: CapturedMail[] = [];
   for (const file of files) {
     const mail = await simpleParser(readFileSync(path.join(mailDir(), file)));
-    const recipients = [mail.to]
+    const to = [mail.to]
       .flat()
       .flatMap((address) => address?.value ?? [])
-      .map((value) => value.address?.toLowerCase());
-    if (recipients.includes(to.toLowerCase())) messages.push(mail);
+      .map((value) => value.address ?? '');
+    found.push({ file, to, subject: mail.subject ?? '', mail });
   }
-  return messages;
+  return found;
+}
+
+/** Every captured message to `to`, oldest first (decoded: subjects, quoted-printable bodies). */
+export async function mailTo(to: string): Promise<ParsedMail[]> {
+  const wanted = to.toLowerCase();
+  return (await capturedMail()).filter((captured) => captured.to.some((address) => address.toLowerCase() === wanted)).map((captured) => captured.mail);
 }
 
 /** Waits for the next message to `to` whose subject contains `subject`, beyond the `already` seen. */
@@ -64,24 +70,7 @@ export interface CapturedMail {
 
 /** Every captured message with a recipient whose address contains `fragment`, oldest first. */
 export async function mailMentioning(fragment: string): Promise<CapturedMail[]> {
-  let files: string[] = [];
-  try {
-    files = readdirSync(mailDir())
-      .filter((name) => name.endsWith('.eml'))
-      .sort();
-  } catch {
-    return [];
-  }
-  const found: CapturedMail[] = [];
-  for (const file of files) {
-    const mail = await simpleParser(readFileSync(path.join(mailDir(), file)));
-    const to = [mail.to]
-      .flat()
-      .flatMap((address) => address?.value ?? [])
-      .map((value) => value.address ?? '');
-    if (to.some((address) => address.includes(fragment))) found.push({ file, to, subject: mail.subject ?? '', mail });
-  }
-  return found;
+  return (await capturedMail()).filter((captured) => captured.to.some((address) => address.includes(fragment)));
 }
 
 /** Every link in a message's text and HTML that starts with `prefix`. */
