@@ -201,6 +201,12 @@ export const matrix: Row[] = [
   { route: 'export the library view', method: 'GET', path: '/api/library/export?format=csv&alloy=ti-grade-2', expect: all(200) },
   { route: 'export my part of the library', method: 'GET', path: '/api/library/export?format=json&mine=1', expect: signedInOnly(200) },
   { route: 'search swatches, bad hex', method: 'GET', path: '/api/swatches/search?hex=orange', expect: all(400) },
+  // the heat matrix of a pair or one alloy (visible coupons only: tests/integration/library-pairs.test.ts)
+  { route: 'heat matrix of an alloy pair', method: 'GET', path: '/api/library/pairs/ti-grade-5+ti-grade-2', expect: all(200) },
+  { route: 'heat matrix, unknown alloy', method: 'GET', path: '/api/library/pairs/ti-grade-2+unobtainium', expect: all(400) },
+  { route: 'heat matrix, the same alloy twice', method: 'GET', path: '/api/library/pairs/ti-grade-2+ti-grade-2', expect: all(400) },
+  { route: 'heat matrix of one alloy', method: 'GET', path: '/api/library/alloys/steel-1084', expect: all(200) },
+  { route: 'heat matrix of one alloy, unknown', method: 'GET', path: '/api/library/alloys/%00', expect: all(400) },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -297,6 +303,14 @@ describe('no page answers 500 to a stranger', () => {
     '/library/search',
     '/library/search?hex=%23c08040&maxDeltaE=3',
     '/library/search?hex=%00&alloy=x&maxDeltaE=-1&limit=x',
+    '/library/pairs',
+    '/library/pairs?a=x&b=%00&unit=K',
+    '/library/pairs/ti-grade-2+ti-grade-5',
+    '/library/pairs/ti-grade-2+ti-grade-5?unit=F',
+    '/library/pairs/x+y',
+    '/library/pairs/%00',
+    '/library/alloys/copper-c11000',
+    '/library/alloys/..%2F..',
   ];
   it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
     const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });

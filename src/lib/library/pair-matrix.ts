@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Lab } from '~/lib/colour';
 import { alloySlugs, findAlloy, layerKeyOf, type AlloyFamily } from '~/lib/alloys';
 import type { Process, Visibility } from '~/lib/coupons';
+import { celsiusToFahrenheit } from '~/lib/units';
 import { findTintModel, ModelUnavailableError, predictTint, type GrowthFit, type TintName } from '~/lib/tint';
 
 /**
@@ -22,7 +23,8 @@ function alloysSchema(single: boolean) {
     .max(100, { error: 'That is longer than any alloy name.' })
     .transform((value, context) => {
       const parts = value
-        .split(/[+ ]/)
+        // A '+' may arrive percent-encoded in a path, or as a space from a query string.
+        .split(/\+|%2b|\s/i)
         .map((part) => part.trim())
         .filter(Boolean);
       const unknown = parts.find((part) => !knownSlugs.has(part));
@@ -234,8 +236,8 @@ function orderLayers(coupon: MatrixCoupon, alloys: readonly string[]): MatrixCou
   return { ...coupon, layers: [...coupon.layers].sort((a, b) => rank(a) - rank(b) || a.position - b.position) };
 }
 
-/** Why the model cannot predict a heat for an alloy (with the viewer's fit), or null when it can. */
-export function heatUnavailableReason(slug: string, fit: GrowthFit | null | undefined): string | null {
+/** Why the model cannot predict a heat for an alloy, or null when it can. */
+export function heatUnavailableReason(slug: string): string | null {
   const model = findTintModel(slug);
   if (!model) return `${slug} is not in the catalogue.`;
   // Written here rather than with tint's missingModelReason, whose sentence reads "has no an …".
@@ -287,7 +289,7 @@ export function buildPairMatrix(
   }
 
   const unavailable = sorted.flatMap((alloy) => {
-    const reason = heatUnavailableReason(alloy, fits[alloy]);
+    const reason = heatUnavailableReason(alloy);
     return reason ? [{ alloy, reason }] : [];
   });
   const modelled = sorted.filter((alloy) => !unavailable.some((entry) => entry.alloy === alloy));
@@ -314,4 +316,22 @@ export function buildPairMatrix(
     anodized: ordered.filter((coupon) => coupon.process === 'anodize').sort((a, b) => (a.volts ?? 0) - (b.volts ?? 0) || a.id - b.id),
     unbinned: heats.filter((coupon) => coupon.temperatureC === null || coupon.holdSeconds === null).sort((a, b) => a.id - b.id),
   };
+}
+
+/** A row's span in the reader's unit, whole degrees: "475–525 °C", "887–977 °F". */
+export function formatTemperatureSpan(row: Pick<TemperatureRow, 'lowC' | 'highC'>, unit: 'C' | 'F'): string {
+  // Source: NIST SP 811 (2008) appendix B.8: t/°F = 1.8·t/°C + 32.
+  const inUnit = (celsius: number) => Math.round(unit === 'F' ? celsiusToFahrenheit(celsius) : celsius);
+  return `${inUnit(row.lowC)}–${inUnit(row.highC)} °${unit}`;
+}
+
+/** The /library view of one cell's coupons (its bounds are inclusive there, so a coupon on an edge also shows in its neighbour's). */
+export function cellLibraryHref(alloys: readonly string[], row: TemperatureRow, column: HoldColumn): string {
+  const params = new URLSearchParams(alloys.length === 1 ? { alloy: alloys[0] } : { pair: layerKeyOf(alloys) });
+  params.set('tempMin', String(row.lowC));
+  params.set('tempMax', String(row.highC));
+  params.set('holdMin', String(column.minSeconds / 60));
+  if (column.maxSeconds !== null) params.set('holdMax', String(column.maxSeconds / 60));
+  params.set('sort', 'temperature');
+  return `/library?${params}`;
 }

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   alloyParamsSchema,
+  cellLibraryHref,
+  formatTemperatureSpan,
   buildPairMatrix,
   holdColumnOf,
   holdColumns,
@@ -193,6 +195,7 @@ describe('route parameters', () => {
   it('reads a pair in either order, with + or a space (a + decoded from a query)', () => {
     expect(pairParamsSchema.parse({ pair: 'ti-grade-5+ti-grade-2' }).pair).toEqual(['ti-grade-2', 'ti-grade-5']);
     expect(pairParamsSchema.parse({ pair: 'ti-grade-2 ti-grade-5' }).pair).toEqual(['ti-grade-2', 'ti-grade-5']);
+    expect(pairParamsSchema.parse({ pair: 'ti-grade-5%2Bti-grade-2' }).pair).toEqual(['ti-grade-2', 'ti-grade-5']);
     expect(matrixPath(['ti-grade-5', 'ti-grade-2'])).toBe('/library/pairs/ti-grade-2+ti-grade-5');
     expect(matrixPath(['niobium'])).toBe('/library/alloys/niobium');
   });
@@ -214,5 +217,27 @@ describe('route parameters', () => {
     expect(alloyParamsSchema.parse({ alloy: 'niobium' }).alloy).toEqual(['niobium']);
     expect(alloyParamsSchema.safeParse({ alloy: 'niobium+ti-grade-2' }).success).toBe(false);
     expect(alloyParamsSchema.safeParse({ alloy: 'steel' }).error!.issues[0].path).toEqual(['alloy']);
+  });
+});
+
+describe('labels and links', () => {
+  it('writes a row’s span in °C or °F', () => {
+    // Source: NIST SP 811 (2008) appendix B.8: 475 °C = 887 °F, 525 °C = 977 °F.
+    expect(formatTemperatureSpan({ lowC: 475, highC: 525 }, 'C')).toBe('475–525 °C');
+    expect(formatTemperatureSpan({ lowC: 475, highC: 525 }, 'F')).toBe('887–977 °F');
+  });
+
+  it('links a cell to the library filtered to its heats', () => {
+    const rows = temperatureRows(['ti-grade-2', 'ti-grade-5'], []);
+    const href = new URL(cellLibraryHref(['ti-grade-5', 'ti-grade-2'], rows[3], holdColumns[1]), 'http://x');
+    expect(Object.fromEntries(href.searchParams)).toEqual({
+      pair: 'ti-grade-2+ti-grade-5',
+      tempMin: '475',
+      tempMax: '525',
+      holdMin: '5',
+      holdMax: '15',
+      sort: 'temperature',
+    });
+    expect(new URL(cellLibraryHref(['niobium'], rows[0], holdColumns[5]), 'http://x').searchParams.get('holdMax')).toBeNull();
   });
 });
