@@ -7,7 +7,9 @@ import { atmospheres, coolings, processes, surfacePreparations, temperatureMetho
 /**
  * One test coupon and its heat record. Temperatures in °C, times in seconds, flow in L/min.
  * `layerKey` is the sorted alloy slugs joined by '+', so the library can filter by alloy pair
- * with one indexed column.
+ * with one indexed column. `dominantLabL` is the first layer's dominant swatch's L* (the measured
+ * cluster with the largest share over its photos; NULL with none), kept by the photo writers, so
+ * the library can sort by lightness on an index.
  */
 export const coupons = mysqlTable(
   'coupons',
@@ -31,6 +33,7 @@ export const coupons = mysqlTable(
     cooling: mysqlEnum('cooling', coolings),
     notes: text('notes'),
     visibility: mysqlEnum('visibility', visibilities).notNull().default('private'),
+    dominantLabL: double('dominant_lab_l'),
     ...timestamps,
   },
   (table) => [
@@ -41,6 +44,9 @@ export const coupons = mysqlTable(
     index('coupons_temperature_idx').on(table.temperatureC),
     index('coupons_hold_idx').on(table.holdSeconds),
     index('coupons_atmosphere_idx').on(table.atmosphere),
+    index('coupons_lightness_idx').on(table.dominantLabL),
+    // The library's date order for a member (public, members' and own): an ordered walk that stops at the page.
+    index('coupons_created_idx').on(table.createdAt),
   ],
 );
 

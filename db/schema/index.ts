@@ -6,3 +6,4 @@ export * from './coupons';
 export * from './photos';
 export * from './classes';
 export * from './settings';
+export * from './library';

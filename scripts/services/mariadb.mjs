@@ -49,6 +49,9 @@ export async function startMariadb(profile) {
     if (init.status !== 0) throw new SetupError(`mariadb-install-db failed: ${(init.stderr || init.stdout).trim().split('\n').pop()}`);
   }
 
+  // Temporary tables in a folder of its own: other servers on the machine share /tmp.
+  const tmpDir = path.join(profile.runDir, 'tmp');
+  mkdirSync(tmpDir, { recursive: true });
   const args = [
     '--no-defaults',
     ...(process.getuid?.() === 0 ? ['--user=root'] : []),
@@ -58,12 +61,13 @@ export async function startMariadb(profile) {
     `--port=${profile.ports.db}`,
     '--bind-address=127.0.0.1',
     `--log-error=${logFileOf(profile)}`,
+    `--tmpdir=${tmpDir}`,
     '--skip-name-resolve',
     '--character-set-server=utf8mb4',
     '--collation-server=utf8mb4_unicode_ci',
     '--default-time-zone=+00:00',
-    '--innodb-buffer-pool-size=128M',
-    '--innodb-log-file-size=16M',
+    `--innodb-buffer-pool-size=${profile.innodbBufferPool}`,
+    `--innodb-log-file-size=${profile.innodbLogFile}`,
     '--max-connections=200',
   ];
   const pid = startBackground('mariadbd', args, { pidFile, logFile: path.join(profile.runDir, 'mariadbd.out'), cwd: profile.mariadbDir });

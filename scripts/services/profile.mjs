@@ -1,6 +1,7 @@
 // @ts-check
-// Where each run of the app keeps its services: `dev` for `npm start`, `test` for `npm test`.
-// Both can run at once: other ports, other data folders. Ports come from environment variables.
+// Where each run of the app keeps its services: `dev` for `npm start`, `test` for `npm test`,
+// `bench` for the library benchmark's generated data set (kept between runs).
+// All can run at once: other ports, other data folders. Ports come from environment variables.
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
 import { createHash } from 'node:crypto';
@@ -22,7 +23,17 @@ const defaults = {
     smtp: ['OXBLOOM_TEST_SMTP_PORT', 2535],
     inbox: ['OXBLOOM_TEST_INBOX_PORT', 4590],
   },
+  bench: {
+    app: ['OXBLOOM_BENCH_PORT', 4471],
+    db: ['OXBLOOM_BENCH_DB_PORT', 3457],
+    s3: ['OXBLOOM_BENCH_S3_PORT', 4719],
+    smtp: ['OXBLOOM_BENCH_SMTP_PORT', 2675],
+    inbox: ['OXBLOOM_BENCH_INBOX_PORT', 4730],
+  },
 };
+
+/** InnoDB's buffer pool and redo log: small for dev and test; the bench's million swatches load and fit in memory. */
+const innodb = { dev: ['128M', '16M'], test: ['128M', '16M'], bench: ['1G', '512M'] };
 
 /**
  * @param {Record<string, string | undefined>} environment
@@ -40,7 +51,7 @@ function readPort(environment, variable, fallback) {
 }
 
 /**
- * @param {'dev' | 'test'} name
+ * @param {'dev' | 'test' | 'bench'} name
  * @param {Record<string, string | undefined>} environment where ports and OXBLOOM_DATA_ROOT are read
  */
 export function loadProfile(name, environment = process.env) {
@@ -69,6 +80,8 @@ export function loadProfile(name, environment = process.env) {
     s3Dir: path.join(dataRoot, 'local-s3', 'data', name),
     outDir: name === 'dev' ? path.join(root, 'dist') : path.join(dataDir, 'dist'),
     socket: `/tmp/oxbloom-${tag}.sock`,
+    innodbBufferPool: innodb[name][0],
+    innodbLogFile: innodb[name][1],
     bucket,
     database: 'oxbloom',
     databaseUser: 'oxbloom',

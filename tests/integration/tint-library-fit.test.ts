@@ -5,6 +5,13 @@ import { testDatabase } from '../support/database';
 import { deleteCoupons, insertSyntheticCoupon, type SyntheticCoupon } from '../fixtures/library-coupons';
 import { heatThicknessNm, type HeatGrowthLaw } from '~/lib/tint/growth';
 import { findTintModel } from '~/lib/tint/models';
+import { eq } from 'drizzle-orm';
+import { photos, users } from '../../db/schema';
+import { deleteAccount } from '~/lib/server/account-data';
+import { setVisibility } from '~/lib/server/coupons';
+import { deletePhoto } from '~/lib/server/photos/deletion';
+import { libraryFit, libraryVersion } from '~/lib/server/tint-fit';
+import type { Viewer } from '~/lib/server/visibility';
 
 // The heat planner's library fit against the real database: coupons with swatches are inserted
 // directly, their colours made by our own tint model at thicknesses from a known growth law
@@ -96,14 +103,74 @@ describe('the heat planner with the library fit', () => {
 
   it('refits when a coupon stops being shared', async () => {
     const [members] = inserted.slice(3, 4);
-    await pool.query("UPDATE coupons SET visibility = 'private' WHERE id = ?", [members]);
+    await setVisibility(members, 'private');
     try {
       await expect(predict(jars.member)).resolves.toMatchObject({ couponCount: 4 });
       await expect(predict(jars.instructor)).resolves.toMatchObject({ couponCount: 4 });
     } finally {
-      await pool.query("UPDATE coupons SET visibility = 'members' WHERE id = ?", [members]);
+      await setVisibility(members, 'members');
     }
     await expect(predict(jars.member)).resolves.toMatchObject({ couponCount: 5 });
+  });
+});
+
+describe('the library version every writer bumps', () => {
+  const idOf = async (email: string) => (await db.select({ id: users.id }).from(users).where(eq(users.email, email)))[0].id;
+  let viewer: Viewer;
+  const version = async () => (await libraryVersion(ALLOY, viewer))!.version;
+
+  /** The version goes up by the write, and this process's next fit is a new one (a refit). */
+  async function expectRefit(write: () => Promise<unknown>) {
+    const before = await version();
+    const fit = await libraryFit(ALLOY, viewer);
+    await write();
+    expect(await version()).toBeGreaterThan(before);
+    expect(await libraryFit(ALLOY, viewer)).not.toBe(fit);
+  }
+
+  beforeAll(async () => {
+    viewer = { id: await idOf(demo.member), role: 'member' };
+  });
+
+  it('a prediction with no change reads the version and reuses the fit', async () => {
+    const fit = await libraryFit(ALLOY, viewer);
+    expect(fit).not.toBeNull();
+    const before = await version();
+    expect(await libraryFit(ALLOY, viewer)).toBe(fit);
+    expect(await version()).toBe(before);
+  });
+
+  it('a coupon edit (its heat record, through the API) bumps it', async () => {
+    const [own] = inserted.slice(0, 1);
+    await expectRefit(async () => {
+      const response = await api(`/api/coupons/${own}`, { method: 'PATCH', jar: jars.member2, json: { holdSeconds: 3660 } });
+      expect(response.status).toBe(200);
+    });
+  });
+
+  it('a change of who may see a coupon bumps it', async () => {
+    const [members] = inserted.slice(3, 4);
+    await expectRefit(() => setVisibility(members, 'public'));
+    await expectRefit(() => setVisibility(members, 'members'));
+  });
+
+  it('a photo’s deletion bumps it', async () => {
+    const [twoPhotos] = inserted.slice(0, 1);
+    const [photo] = await db.select().from(photos).where(eq(photos.couponId, twoPhotos)).limit(1);
+    await expectRefit(() => deletePhoto(photo));
+  });
+
+  it('a coupon’s deletion (through the API) bumps it', async () => {
+    const added = await insertSyntheticCoupon(db, { ownerEmail: demo.instructor, alloy: ALLOY, visibility: 'members', ...heat(510, 50) });
+    await expectRefit(async () => expect((await api(`/api/coupons/${added}`, { method: 'DELETE', jar: jars.instructor })).status).toBe(204));
+  });
+
+  it('an account’s deletion bumps it', async () => {
+    const email = `leaving-${Date.now()}@example.test`;
+    await db.insert(users).values({ name: 'Leaving member', email });
+    await insertSyntheticCoupon(db, { ownerEmail: email, alloy: ALLOY, visibility: 'public', ...heat(530, 30) });
+    const id = await idOf(email);
+    await expectRefit(() => deleteAccount(id));
   });
 });
 

@@ -11,7 +11,7 @@ import { fahrenheitToCelsius } from '~/lib/units';
  * seconds. An empty form field means "no filter".
  */
 
-export const librarySorts = ['date', 'temperature', 'hold'] as const;
+export const librarySorts = ['date', 'temperature', 'hold', 'lightness'] as const;
 export type LibrarySort = (typeof librarySorts)[number];
 export type SortOrder = 'asc' | 'desc';
 
@@ -56,7 +56,7 @@ export const libraryQuerySchema = z
     prep: optional(z.enum(surfacePreparations, { error: 'Choose a surface preparation from the list.' })),
     photos: flag,
     mine: flag,
-    sort: z.preprocess(blank, z.enum(librarySorts, { error: 'Sort by date, temperature or hold.' }).default('date')),
+    sort: z.preprocess(blank, z.enum(librarySorts, { error: 'Sort by date, temperature, hold or lightness.' }).default('date')),
     order: optional(z.enum(['asc', 'desc'], { error: 'Use asc or desc.' })),
     view: z.preprocess(blank, z.enum(['table', 'grid'], { error: 'Use table or grid.' }).default('table')),
     cursor: optional(z.string().max(500)),
@@ -101,7 +101,7 @@ export { MAX_TEMPERATURE_C };
 export interface LibraryCursor {
   sort: LibrarySort;
   order: SortOrder;
-  /** The sort column's value at the last row (ms since epoch for the date); null when the row had none. */
+  /** The sort column's value at the last row (ms since epoch for the date, L* for lightness); null when the row had none. */
   value: number | null;
   id: number;
 }

@@ -1,6 +1,7 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches, uploads, users } from '../../../db/schema';
 import { db } from './db';
+import { alloysOfOwner, bumpLibraryVersions } from './library-versions';
 import { userPrefix } from './photos/keys';
 import { deleteObjects, listKeys, presignDownload } from './storage';
 import { findUserById } from './users';
@@ -41,7 +42,7 @@ export async function exportAccount(userId: string) {
 
 /**
  * Deletes an account and with it coupons, photos, swatches and memberships (the database
- * cascades), then the person's objects in storage. Published colour sheets stay, without the
+ * cascades; the library versions of their alloys go up), then the person's objects in storage. Published colour sheets stay, without the
  * person's swatches.
  */
 export async function deleteAccount(userId: string): Promise<void> {
@@ -50,7 +51,11 @@ export async function deleteAccount(userId: string): Promise<void> {
     .from(photos)
     .where(eq(photos.ownerId, userId));
   const uploadKeys = await db().select({ key: uploads.key }).from(uploads).where(eq(uploads.ownerId, userId));
-  await db().delete(users).where(eq(users.id, userId));
+  await db().transaction(async (tx) => {
+    const alloysHeld = await alloysOfOwner(tx, userId);
+    await tx.delete(users).where(eq(users.id, userId));
+    await bumpLibraryVersions(tx, alloysHeld);
+  });
   const keys = new Set([
     ...photoKeys.flatMap((photo) => [photo.originalKey, photo.displayKey, photo.thumbKey]),
     ...uploadKeys.map((upload) => upload.key),

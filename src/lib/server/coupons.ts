@@ -10,6 +10,7 @@ import { routeId } from './route-params';
 import { mayChange, visibleCoupons, type Viewer } from './visibility';
 import { forgetCouponPhotos, removePhotoFiles } from './photos/deletion';
 import { findPhoto, lockCoupon, photoTransaction, type PhotoWithCoupon } from './photos/records';
+import { alloysOfCoupons, bumpLibraryVersions, refreshCouponLightness } from './library-versions';
 
 export interface CouponLayer {
   id: number;
@@ -143,13 +144,17 @@ export async function createCoupon(ownerId: string, input: Coupon): Promise<numb
 
 /**
  * Saves an edited coupon. Layers are changed in place by position, so a layer keeps its regions
- * and swatches when only its alloy changes; removed positions take theirs with them.
+ * and swatches when only its alloy changes; removed positions take theirs with them. The library
+ * versions of its alloys before and after go up (its heat record or layers changed what they hold).
  */
 export async function updateCoupon(id: number, input: Coupon): Promise<void> {
   const ids = await alloyIds(input.layers);
   await db().transaction(async (tx) => {
     await tx.update(coupons).set(recordOf(input)).where(eq(coupons.id, id));
-    const existing = await tx.select({ id: couponLayers.id, position: couponLayers.position }).from(couponLayers).where(eq(couponLayers.couponId, id));
+    const existing = await tx
+      .select({ id: couponLayers.id, position: couponLayers.position, alloyId: couponLayers.alloyId })
+      .from(couponLayers)
+      .where(eq(couponLayers.couponId, id));
     for (const [position, slug] of input.layers.entries()) {
       const layer = existing.find((row) => row.position === position);
       if (layer) {
@@ -166,11 +171,17 @@ export async function updateCoupon(id: number, input: Coupon): Promise<void> {
     }
     const removed = existing.filter((row) => row.position >= input.layers.length).map((row) => row.id);
     if (removed.length) await tx.delete(couponLayers).where(inArray(couponLayers.id, removed));
+    await refreshCouponLightness(tx, id);
+    await bumpLibraryVersions(tx, [...existing.map((layer) => layer.alloyId), ...ids.values()]);
   });
 }
 
+/** Shares or unshares a coupon: who sees its alloys' swatches changes, so their versions go up. */
 export async function setVisibility(id: number, visibility: Visibility): Promise<void> {
-  await db().update(coupons).set({ visibility }).where(eq(coupons.id, id));
+  await db().transaction(async (tx) => {
+    await tx.update(coupons).set({ visibility }).where(eq(coupons.id, id));
+    await bumpLibraryVersions(tx, await alloysOfCoupons(tx, [id]));
+  });
 }
 
 /**
@@ -184,7 +195,9 @@ export async function deleteCoupon(id: number): Promise<boolean> {
   const photosGone = await photoTransaction(db(), async (tx) => {
     if (!(await lockCoupon(tx, id))) return undefined;
     const owned = await forgetCouponPhotos(tx, id);
+    const alloysHeld = await alloysOfCoupons(tx, [id]);
     await tx.delete(coupons).where(eq(coupons.id, id));
+    await bumpLibraryVersions(tx, alloysHeld);
     return owned;
   });
   if (!photosGone) return false;

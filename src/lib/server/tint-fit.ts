@@ -1,5 +1,5 @@
 import { and, eq, inArray, isNotNull, or, sql, type SQL } from 'drizzle-orm';
-import { alloys, coupons, swatches } from '../../../db/schema';
+import { alloys, couponLayers, coupons, libraryVersions, swatches } from '../../../db/schema';
 import type { Lab } from '~/lib/colour';
 import { fitGrowth, findTintModel, type CouponObservation, type GrowthFit } from '~/lib/tint';
 import { db } from './db';
@@ -9,9 +9,10 @@ import { visibleCoupons, type Viewer } from './visibility';
  * The library fit of an alloy's growth laws, for one signed-in person: fitted to the coupons they
  * may see (visibleCoupons in visibility.ts) that have swatches for a layer of that alloy.
  *
- * Fits are kept in this process's memory keyed by alloy and audience, with a version read from
- * the database on every request (count, id sum and last edit of the coupons' swatches), so a new,
- * edited, re-shared or deleted coupon refits here and in every other app process alike.
+ * Fits are kept in this process's memory keyed by alloy and audience, with the alloy's library
+ * version (library_versions, bumped by every write that changes its swatches or who sees them:
+ * library-versions.ts) read on every request by primary key, so a new, edited, re-shared or deleted
+ * coupon refits here and in every other app process alike, and a prediction scans no swatches.
  */
 
 /** Heat processes whose coupons feed the heat law; only heats in air (the priors are for air). */
@@ -30,32 +31,32 @@ function relevantSwatches(slug: string, viewer: Viewer): SQL | undefined {
   return and(eq(alloys.slug, slug), isNotNull(swatches.layerId), usableCoupon, visibleCoupons(viewer));
 }
 
-interface LibraryVersion {
+export interface LibraryVersion {
   /** Whose fit this is: everyone's library (admins), the shared one, or one person's own. */
   audience: string;
-  version: string;
-  swatchCount: number;
+  version: number;
 }
 
 /**
- * A cheap fingerprint of the swatches a fit would use. The id sum changes with any insert or
- * delete (ids only grow), the last edit with any change to a coupon's heat record or visibility.
- * People with no private coupons of the alloy share one fit: they all see the same library.
+ * The alloy's library version and the viewer's audience, in one query: the version row by primary
+ * key, and whether the viewer has a private coupon with a layer of the alloy (their own coupons,
+ * by the owner index). People with none share one fit: they all see the same library. Undefined
+ * for an alloy not in the catalogue.
  */
-export async function libraryVersion(slug: string, viewer: Viewer): Promise<LibraryVersion> {
+export async function libraryVersion(slug: string, viewer: Viewer): Promise<LibraryVersion | undefined> {
+  const personal =
+    viewer.role === 'admin'
+      ? sql<number>`0`
+      : sql<number>`exists (select 1 from ${coupons} join ${couponLayers} on ${couponLayers.couponId} = ${coupons.id}
+          where ${coupons.ownerId} = ${viewer.id} and ${coupons.visibility} = 'private' and ${couponLayers.alloyId} = ${alloys.id})`;
   const [row] = await db()
-    .select({
-      count: sql<number>`count(*)`.mapWith(Number),
-      idSum: sql<string>`coalesce(sum(${swatches.id}), 0)`.mapWith(String),
-      lastEdit: sql<string | null>`cast(max(${coupons.updatedAt}) as char)`,
-      privateCount: sql<number>`coalesce(sum(${coupons.visibility} = 'private'), 0)`.mapWith(Number),
-    })
-    .from(swatches)
-    .innerJoin(coupons, eq(coupons.id, swatches.couponId))
-    .innerJoin(alloys, eq(alloys.id, swatches.alloyId))
-    .where(relevantSwatches(slug, viewer));
-  const audience = viewer.role === 'admin' ? 'all' : row.privateCount > 0 ? `person:${viewer.id}` : 'shared';
-  return { audience, version: `${row.count}/${row.idSum}/${row.lastEdit ?? '-'}`, swatchCount: row.count };
+    .select({ version: sql<number>`coalesce(${libraryVersions.version}, 0)`.mapWith(Number), personal: personal.mapWith(Number) })
+    .from(alloys)
+    .leftJoin(libraryVersions, eq(libraryVersions.alloyId, alloys.id))
+    .where(eq(alloys.slug, slug));
+  if (!row) return undefined;
+  const audience = viewer.role === 'admin' ? 'all' : row.personal ? `person:${viewer.id}` : 'shared';
+  return { audience, version: row.version };
 }
 
 interface SwatchRow {
@@ -126,8 +127,8 @@ export async function loadObservations(slug: string, viewer: Viewer): Promise<Co
 }
 
 interface CachedFit {
-  version: string;
-  fit: Promise<GrowthFit>;
+  version: number;
+  fit: Promise<GrowthFit | null>;
 }
 
 const cache = new Map<string, CachedFit>();
@@ -146,16 +147,16 @@ function remember(key: string, entry: CachedFit) {
 export async function libraryFit(slug: string, viewer: Viewer): Promise<GrowthFit | null> {
   const model = findTintModel(slug);
   if (!model?.optics || (!model.heat && !model.anodize)) return null;
-  const { audience, version, swatchCount } = await libraryVersion(slug, viewer);
-  if (swatchCount === 0) return null;
-  const key = `${slug}|${audience}`;
+  const current = await libraryVersion(slug, viewer);
+  if (!current) return null;
+  const key = `${slug}|${current.audience}`;
   const cached = cache.get(key);
-  if (cached?.version === version) {
+  if (cached?.version === current.version) {
     remember(key, cached);
     return cached.fit;
   }
-  const fit = loadObservations(slug, viewer).then((observations) => fitGrowth(model, observations));
-  const entry = { version, fit };
+  const fit = loadObservations(slug, viewer).then((observations) => (observations.length === 0 ? null : fitGrowth(model, observations)));
+  const entry = { version: current.version, fit };
   remember(key, entry);
   fit.catch(() => cache.get(key) === entry && cache.delete(key));
   return fit;

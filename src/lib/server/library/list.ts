@@ -1,10 +1,10 @@
-import { and, asc, count, desc, eq, gte, inArray, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNotNull, isNull, lte, or, sql, type SQL } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, photos, swatches } from '../../../../db/schema';
 import { decodeCursor, encodeCursor, type LibraryCursor, type LibraryQuery } from '~/lib/library/query';
 import type { SessionUser } from '~/lib/server/authorise';
 import { visibleCoupons } from '~/lib/server/visibility';
 import { db } from '~/lib/server/db';
-import { listCouponRows, type CouponRecord } from './coupon-rows';
+import { listCouponRows, type LibraryRecord } from './coupon-rows';
 
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
@@ -16,17 +16,22 @@ export interface DominantSwatch {
   share: number;
 }
 
-export type LibraryCoupon = CouponRecord & { dominantSwatches: DominantSwatch[] };
+export type LibraryCoupon = LibraryRecord & { dominantSwatches: DominantSwatch[] };
 
 export interface LibraryPage {
   coupons: LibraryCoupon[];
+  /** How many coupons match, counted up to TOTAL_CAP: past it, `totalExact` is false and `total` is the cap. */
   total: number;
+  totalExact: boolean;
   nextCursor: string | null;
 }
 
+/** Counting stops here: an exact total of a hundred thousand rows would cost a scan on every page. */
+export const TOTAL_CAP = 1000;
+
 export class BadCursor extends Error {}
 
-const sortColumn = { date: coupons.createdAt, temperature: coupons.temperatureC, hold: coupons.holdSeconds } as const;
+const sortColumn = { date: coupons.createdAt, temperature: coupons.temperatureC, hold: coupons.holdSeconds, lightness: coupons.dominantLabL } as const;
 
 /** The filters of a library query, as SQL, with the viewer's visibility rule. */
 export function libraryWhere(viewer: Viewer, query: LibraryQuery, alloyId?: number): SQL | undefined {
@@ -50,21 +55,8 @@ export function libraryWhere(viewer: Viewer, query: LibraryQuery, alloyId?: numb
   );
 }
 
-/**
- * Rows after the cursor in the order (sort key, id), with rows lacking the sort key (an anodized
- * coupon has no temperature) last in either direction.
- */
-function afterCursor(cursor: LibraryCursor): SQL | undefined {
-  const column = sortColumn[cursor.sort];
-  const after = cursor.order === 'asc' ? sql`>` : sql`<`;
-  const idAfter = sql`${coupons.id} ${after} ${cursor.id}`;
-  if (cursor.value === null) return and(isNull(column), idAfter);
-  const value = cursor.sort === 'date' ? new Date(cursor.value) : cursor.value;
-  return or(sql`${column} ${after} ${value}`, and(eq(column, value), idAfter), isNull(column));
-}
-
-const cursorValue = (row: CouponRecord, sort: LibraryCursor['sort']): number | null =>
-  sort === 'date' ? row.createdAt.getTime() : sort === 'temperature' ? row.temperatureC : row.holdSeconds;
+const cursorValue = (row: LibraryRecord, sort: LibraryCursor['sort']): number | null =>
+  sort === 'date' ? row.createdAt.getTime() : sort === 'temperature' ? row.temperatureC : sort === 'hold' ? row.holdSeconds : row.dominantLabL;
 
 async function alloyIdOf(slug: string): Promise<number> {
   const [row] = await db().select({ id: alloys.id }).from(alloys).where(eq(alloys.slug, slug));
@@ -72,25 +64,60 @@ async function alloyIdOf(slug: string): Promise<number> {
 }
 
 /**
+ * The rows of one page, in the order (sort key, id), rows lacking the sort key (an anodized
+ * coupon has no temperature, an unmeasured one no lightness) last in either direction. Read in
+ * two steps, each an ordered walk of the sort column's index that stops at the page's end: the
+ * rows with a value after the cursor, then, if the page is not full, those without one.
+ */
+async function pageRows(where: SQL | undefined, query: LibraryQuery, cursor: LibraryCursor | undefined, want: number): Promise<LibraryRecord[]> {
+  const column = sortColumn[query.sort];
+  const direction = query.order === 'asc' ? asc : desc;
+  const after = query.order === 'asc' ? sql`>` : sql`<`;
+  if (query.offset > 0) {
+    // Older callers' offset paging: one query, nulls last by expression.
+    return listCouponRows(where, [sql`${column} is null`, direction(column), direction(coupons.id)], want, query.offset);
+  }
+  const rows: LibraryRecord[] = [];
+  if (!cursor || cursor.value !== null) {
+    const value = cursor && (query.sort === 'date' ? new Date(cursor.value!) : cursor.value!);
+    const afterCursor = cursor ? or(sql`${column} ${after} ${value}`, and(eq(column, value!), sql`${coupons.id} ${after} ${cursor.id}`)) : undefined;
+    rows.push(...(await listCouponRows(and(where, isNotNull(column), afterCursor), [direction(column), direction(coupons.id)], want)));
+  }
+  if (rows.length < want && query.sort !== 'date') {
+    const afterId = cursor?.value === null ? sql`${coupons.id} ${after} ${cursor.id}` : undefined;
+    rows.push(...(await listCouponRows(and(where, isNull(column), afterId), [direction(coupons.id)], want - rows.length)));
+  }
+  return rows;
+}
+
+/** How many coupons match, up to the cap (a count that stops at the cap's row). */
+async function cappedTotal(where: SQL | undefined): Promise<{ total: number; totalExact: boolean }> {
+  const matching = db()
+    .select({ one: sql`1` })
+    .from(coupons)
+    .where(where)
+    .limit(TOTAL_CAP + 1)
+    .as('matching');
+  const [{ total }] = await db().select({ total: count() }).from(matching);
+  return total > TOTAL_CAP ? { total: TOTAL_CAP, totalExact: false } : { total, totalExact: true };
+}
+
+/**
  * One page of the library: the coupons the viewer may see that match the query, in its order,
- * paged by keyset (or by offset, for older callers), each with its layers' dominant swatches.
- * Throws BadCursor when the cursor is not one of ours for this sort.
+ * paged by keyset (or by offset, for older callers), each with its layers' dominant swatches, and
+ * the number that match (exact up to TOTAL_CAP). Throws BadCursor when the cursor is not one of
+ * ours for this sort.
  */
 export async function listLibrary(viewer: Viewer, query: LibraryQuery): Promise<LibraryPage> {
   const cursor = query.cursor === undefined ? undefined : decodeCursor(query.cursor, query.sort, query.order);
   if (query.cursor !== undefined && !cursor) throw new BadCursor('That page link is out of date or not one of ours.');
   const alloyId = query.alloy ? await alloyIdOf(query.alloy) : undefined;
   const where = libraryWhere(viewer, query, alloyId);
-  const column = sortColumn[query.sort];
-  const direction = query.order === 'asc' ? asc : desc;
-  const rows = await listCouponRows(
-    and(where, cursor ? afterCursor(cursor) : undefined),
-    [sql`${column} is null`, direction(column), direction(coupons.id)],
-    query.limit + 1,
-    query.offset,
-  );
-  const [{ total }] = await db().select({ total: count() }).from(coupons).where(where);
+  const rows = await pageRows(where, query, cursor, query.limit + 1);
   const page = rows.slice(0, query.limit);
+  // A first page that holds every match needs no count.
+  const { total, totalExact } =
+    !cursor && query.offset === 0 && rows.length <= query.limit ? { total: rows.length, totalExact: true } : await cappedTotal(where);
   const last = page.at(-1);
   const nextCursor =
     rows.length > query.limit && last ? encodeCursor({ sort: query.sort, order: query.order, value: cursorValue(last, query.sort), id: last.id }) : null;
@@ -104,6 +131,7 @@ export async function listLibrary(viewer: Viewer, query: LibraryQuery): Promise<
       }),
     })),
     total,
+    totalExact,
     nextCursor,
   };
 }

@@ -3,7 +3,8 @@ import { photos } from '../../../../db/schema';
 import { db } from '~/lib/server/db';
 import { deleteObjects, listKeys } from '~/lib/server/storage';
 import { folderOf } from './keys';
-import { lockPhoto, photoTransaction, type PhotoRecord, type Transaction } from './records';
+import { bumpLibraryVersions, refreshCouponLightness } from '~/lib/server/library-versions';
+import { layerAlloys, lockPhoto, photoTransaction, type PhotoRecord, type Transaction } from './records';
 import { dropEntry, forgetLater, type LedgerEntry } from './uploads-ledger';
 
 /**
@@ -42,13 +43,16 @@ export async function removePhotoFiles(photo: PhotoRecord): Promise<void> {
 
 /**
  * Deletes a photo: the row (regions and swatches cascade) goes together with a ledger entry for
- * its folder, then the files. False when it was gone already (deleted, or its coupon was).
+ * its folder, the coupon's new lightness and its alloys' library versions, then the files. False
+ * when it was gone already (deleted, or its coupon was).
  */
 export async function deletePhoto(photo: PhotoRecord): Promise<boolean> {
   const deleted = await photoTransaction(db(), async (tx) => {
     if (!(await lockPhoto(tx, photo))) return false;
     await forgetPhoto(tx, photo);
     await tx.delete(photos).where(eq(photos.id, photo.id));
+    await refreshCouponLightness(tx, photo.couponId);
+    await bumpLibraryVersions(tx, (await layerAlloys(tx, photo.couponId)).values());
     return true;
   });
   if (deleted) await removePhotoFiles(photo);

@@ -8,13 +8,14 @@ import type { CouponAccess } from '~/lib/server/visibility';
 import type { PhotoAnalysis } from './measure';
 import { exifColumns, type PhotoExif } from './metadata';
 import type { PhotoFiles } from './store';
+import { bumpLibraryVersions, refreshCouponLightness } from '~/lib/server/library-versions';
 
 /**
  * A photo's rows: the photo, its regions and swatches — found, locked and written (the upload's
  * last step). Writers take the database or a transaction (the seed passes its own).
  */
 
-type Writer = Pick<Database, 'insert' | 'delete' | 'select'>;
+type Writer = Pick<Database, 'insert' | 'delete' | 'select' | 'update'>;
 export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
 export type PhotoRecord = typeof photos.$inferSelect;
 
@@ -118,7 +119,8 @@ const swatchColumns = (swatch: Swatch) => ({
  * Writes a photo's regions and swatches (replacing what it had when `replacing`).
  * `analysis.regions` follows the layer regions in the order given (see analyseRegions), or is
  * the whole photo when there are none: those swatches get no region and no layer. Each group
- * stores its mean (rank 0, isMean) and its swatches ranked 1… by share.
+ * stores its mean (rank 0, isMean) and its swatches ranked 1… by share. Then the coupon's
+ * lightness is worked out again and its alloys' library versions go up.
  */
 export async function writeRegions(
   writer: Writer,
@@ -150,6 +152,8 @@ export async function writeRegions(
     ];
   });
   if (rows.length) await writer.insert(swatches).values(rows);
+  await refreshCouponLightness(writer, photo.couponId);
+  await bumpLibraryVersions(writer, alloyByLayer.values());
 }
 
 /** MariaDB's "a foreign key constraint fails" when the coupon went while the photo was processed. */
