@@ -143,7 +143,7 @@ describe('the library version every writer bumps', () => {
   it('a coupon edit (its heat record, through the API) bumps it', async () => {
     const [own] = inserted.slice(0, 1);
     await expectRefit(async () => {
-      const response = await api(`/api/coupons/${own}`, { method: 'PATCH', jar: jars.member2, json: { holdSeconds: 3660 } });
+      const response = await api(`/api/coupons/${own}`, { method: 'PATCH', jar: jars.member2, json: { holdSeconds: 3660, temperatureMethod: 'thermocouple' } });
       expect(response.status).toBe(200);
     });
   });
