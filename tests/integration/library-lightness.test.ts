@@ -37,7 +37,7 @@ async function insertCoupon(temperatureC: number, clusters: [number, number][], 
     })
     .$returningId();
   created.push(id);
-  const layerIds = [];
+  const layerIds: number[] = [];
   for (const position of [0, 1]) layerIds.push((await db.insert(couponLayers).values({ couponId: id, position, alloyId }).$returningId())[0].id);
   if (clusters.length) {
     const key = `test/lightness/${id}`;

@@ -12,14 +12,14 @@ import type { Database } from '../../../db/client';
 type Writer = Pick<Database, 'insert' | 'update' | 'select'>;
 
 /** The alloys of the coupons' layers. */
-export async function alloysOfCoupons(reader: Pick<Database, 'select'>, couponIds: number[]): Promise<number[]> {
+export async function alloysOfCoupons(reader: Pick<Database, 'selectDistinct'>, couponIds: number[]): Promise<number[]> {
   if (couponIds.length === 0) return [];
   const rows = await reader.selectDistinct({ alloyId: couponLayers.alloyId }).from(couponLayers).where(inArray(couponLayers.couponId, couponIds));
   return rows.map((row) => row.alloyId);
 }
 
 /** The alloys of the coupons of one owner (an account's deletion takes them all). */
-export async function alloysOfOwner(reader: Pick<Database, 'select'>, ownerId: string): Promise<number[]> {
+export async function alloysOfOwner(reader: Pick<Database, 'selectDistinct'>, ownerId: string): Promise<number[]> {
   const rows = await reader
     .selectDistinct({ alloyId: couponLayers.alloyId })
     .from(couponLayers)
