@@ -20,6 +20,7 @@ export const GET: APIRoute = async (context) => {
     return json({
       coupons: page.coupons.map((coupon) => ({ ...couponView(coupon, viewer), dominantSwatches: coupon.dominantSwatches })),
       total: page.total,
+      totalExact: page.totalExact,
       limit: query.data.limit,
       offset: query.data.offset,
       nextCursor: page.nextCursor,

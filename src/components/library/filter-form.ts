@@ -1,0 +1,23 @@
+/**
+ * The island's hold on the page's plain GET filter form (LibraryFilters.astro): read its fields,
+ * and set them to match a view when the island changes it (a header sort, the back button).
+ */
+
+export const FILTER_FORM_ID = 'library-filters';
+
+export const filterForm = (): HTMLFormElement | null => document.getElementById(FILTER_FORM_ID) as HTMLFormElement | null;
+
+export function readFields(form: HTMLFormElement): [string, string][] {
+  return [...new FormData(form)].map(([key, value]) => [key, typeof value === 'string' ? value : '']);
+}
+
+/** Sets every named field to `values` (a field left out is cleared); hidden fields are left alone. */
+export function writeFields(form: HTMLFormElement, values: Record<string, string>): void {
+  for (const element of Array.from(form.elements)) {
+    if (!(element instanceof HTMLInputElement || element instanceof HTMLSelectElement) || !element.name) continue;
+    const value = values[element.name] ?? '';
+    if (element instanceof HTMLInputElement && element.type === 'hidden') continue;
+    if (element instanceof HTMLInputElement && element.type === 'checkbox') element.checked = value !== '';
+    else element.value = value;
+  }
+}
