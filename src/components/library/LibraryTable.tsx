@@ -188,7 +188,8 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
 
   const total = page?.total;
   const status =
-    total === undefined ? 'Loading coupons…' : page?.totalExact === false ? `More than ${total} coupons match` : `${total} ${total === 1 ? 'coupon matches' : 'coupons match'}`;
+    answer.isError && !stale ? 'No results to show' : total === undefined ? 'Loading coupons…' : page?.totalExact === false ? `More than ${total} coupons match` : `${total} ${total === 1 ? 'coupon matches' : 'coupons match'}`;
+  const showCompare = !hydrated || selected.length > 0 || (page !== undefined && page.rows.length > 0 && !(answer.isError && !stale));
   const compareHint = !hydrated
     ? `Tick ${COMPARE_MIN} to ${COMPARE_MAX} coupons to compare them.`
     : selected.length > COMPARE_MAX
@@ -218,21 +219,23 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
           ))}
         </nav>
       </div>
-      <div
-        className={`flex flex-wrap items-center gap-x-3 gap-y-1 rounded-lg border border-ash-200 bg-white px-3 py-2 text-sm ${hydrated && selected.length > 0 ? 'sticky top-2 z-10 shadow-md' : ''}`}
-      >
-        <button className="btn min-h-9 px-3 py-1" type="submit" disabled={hydrated && !canCompare}>
-          {hydrated ? `Compare selected (${selected.length})` : 'Compare selected'}
-        </button>
-        <span className="text-ash-700" aria-live="polite">
-          {compareHint}
-        </span>
-        {hydrated && selected.length > 0 && (
-          <button type="button" className="ml-auto text-temper-700 underline underline-offset-2 hover:text-oxide-700" onClick={() => setSelected([])}>
-            Clear ticks
+      {showCompare && (
+        <div
+          className={`flex flex-wrap items-center gap-x-3 gap-y-1 rounded-lg border border-ash-200 bg-white px-3 py-2 text-sm ${hydrated && selected.length > 0 ? 'sticky top-2 z-10 shadow-md' : ''}`}
+        >
+          <button className={`btn min-h-9 px-3 py-1 ${canCompare ? 'btn-primary' : ''}`} type="submit" disabled={hydrated && !canCompare}>
+            {hydrated ? `Compare selected (${selected.length})` : 'Compare selected'}
           </button>
-        )}
-      </div>
+          <span className="text-ash-700" aria-live="polite">
+            {compareHint}
+          </span>
+          {hydrated && selected.length > 0 && (
+            <button type="button" className="ml-auto text-temper-700 underline underline-offset-2 hover:text-oxide-700" onClick={() => setSelected([])}>
+              Clear ticks
+            </button>
+          )}
+        </div>
+      )}
       <div ref={results} tabIndex={-1} className="relative focus:outline-none" aria-busy={loading}>
         <div className={`absolute inset-x-0 -top-2 h-1 overflow-hidden rounded-full ${loading ? 'bg-oxide-100' : ''}`} aria-hidden="true">
           {loading && <div className="h-full w-1/3 animate-pulse rounded-full bg-oxide-600" />}

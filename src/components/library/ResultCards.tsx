@@ -56,7 +56,9 @@ export function ResultGrid({ rows, unit, selected, onToggle }: Props) {
             <a className="font-medium leading-snug" href={couponHref(row)}>
               {row.title}
             </a>
-            <CompareBox row={row} checked={selected.has(row.id)} onToggle={onToggle} />
+            <label className="-m-2 flex min-h-11 min-w-11 shrink-0 cursor-pointer items-start justify-center p-2">
+              <CompareBox row={row} checked={selected.has(row.id)} onToggle={onToggle} />
+            </label>
           </div>
           <p className="text-xs text-ash-700">{layerNames(row)}</p>
           <p className="tabular text-xs">{joined([temperatureText(row, unit), holdText(row)])}</p>

@@ -50,7 +50,7 @@ export function CompareBox({ row, checked, onToggle }: { row: LibraryRow; checke
       value={row.id}
       checked={checked}
       onChange={() => onToggle(row.id)}
-      className="h-5 w-5 cursor-pointer accent-oxide-700"
+      className="h-5 w-5 shrink-0 cursor-pointer accent-oxide-700"
       aria-label={`Compare ${row.title}`}
     />
   );
