@@ -128,7 +128,9 @@ describe('the library island', () => {
     await page.getByLabel('Highest temperature').fill('100');
     await page.getByRole('button', { name: 'Show coupons' }).click();
     const alert = page.getByRole('alert').filter({ hasText: 'could not show these coupons' });
-    await expect.poll(() => alert.textContent()).toContain('The upper end is below the lower end.');
+    // The API names the field (tempMax); the island says it with the form's own label and marks it.
+    await expect.poll(() => alert.textContent()).toContain('Highest temperature: The upper end is below the lower end.');
+    await expect(page.getByLabel('Highest temperature').getAttribute('aria-invalid')).resolves.toBe('true');
     await expect(alert.getByRole('button', { name: 'Try again' }).isVisible()).resolves.toBe(true);
     expect(await sameDocument(page)).toBe(true);
     await page.close();

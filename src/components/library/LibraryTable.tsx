@@ -1,6 +1,6 @@
 import { keepPreviousData, QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore, type MouseEvent, type ReactNode, type SubmitEventHandler } from 'react';
-import { FILTER_FORM_ID, filterForm, readFields, writeFields } from './filter-form';
+import { fieldLabel, FILTER_FORM_ID, filterForm, markRefused, readFields, writeFields } from './filter-form';
 import { fetchLibraryPage, LibraryLoadError, type LibraryResults } from './library-rows';
 import {
   apiQuery,
@@ -158,8 +158,18 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
     return `/api/library/export?${params}`;
   };
 
+  // The field the API refused, marked in the filter form and named by its label in the message.
+  const refused = answer.isError && !stale && answer.error instanceof LibraryLoadError ? answer.error : undefined;
+  useEffect(() => {
+    const form = filterForm();
+    if (form) markRefused(form, refused?.field);
+  }, [refused]);
+  const form = refused?.field ? filterForm() : null;
+  const label = form && refused?.field ? fieldLabel(form, refused.field) : undefined;
+  const failure = refused?.field && label ? refused.message.replace(`${refused.field}: `, `${label}: `) : answer.error?.message;
+
   let body: ReactNode;
-  if (answer.isError && !stale) body = <LoadFailed message={answer.error.message} busy={loading} retry={() => answer.refetch()} href={libraryPath(view)} />;
+  if (answer.isError && !stale) body = <LoadFailed message={failure ?? ''} busy={loading} retry={() => answer.refetch()} href={libraryPath(view)} />;
   else if (!page) body = <Loading />;
   else if (page.rows.length === 0) body = <NothingFound clear={follow(withDisplay(readView('', sorts), view.display))} />;
   else if (view.display === 'grid') body = <ResultGrid rows={page.rows} unit={unit} selected={selectedSet} onToggle={toggle} />;

@@ -53,7 +53,7 @@ export function ResultGrid({ rows, unit, selected, onToggle }: Props) {
             )}
           </div>
           <div className="flex items-start justify-between gap-2">
-            <a className="font-medium leading-snug" href={couponHref(row)}>
+            <a className="text-sm font-medium leading-snug" href={couponHref(row)}>
               {row.title}
             </a>
             <label className="-m-2 flex min-h-11 min-w-11 shrink-0 cursor-pointer items-start justify-center p-2">

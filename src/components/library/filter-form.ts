@@ -21,3 +21,19 @@ export function writeFields(form: HTMLFormElement, values: Record<string, string
     else element.value = value;
   }
 }
+
+/** Marks the field the API refused with `aria-invalid` (none: clears the mark). */
+export function markRefused(form: HTMLFormElement, name: string | undefined): void {
+  for (const element of Array.from(form.elements)) {
+    if (!(element instanceof HTMLInputElement || element instanceof HTMLSelectElement)) continue;
+    if (name && element.name === name) element.setAttribute('aria-invalid', 'true');
+    else element.removeAttribute('aria-invalid');
+  }
+}
+
+/** A field's label as the form shows it, so a message can read "Highest temperature: …" rather than name the parameter. */
+export function fieldLabel(form: HTMLFormElement, name: string): string | undefined {
+  const element = form.elements.namedItem(name);
+  if (!(element instanceof HTMLInputElement || element instanceof HTMLSelectElement)) return undefined;
+  return element.getAttribute('aria-label') ?? element.labels?.[0]?.textContent?.trim() ?? undefined;
+}
