@@ -198,7 +198,13 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
 
   const total = page?.total;
   const status =
-    answer.isError && !stale ? 'No results to show' : total === undefined ? 'Loading coupons…' : page?.totalExact === false ? `More than ${total} coupons match` : `${total} ${total === 1 ? 'coupon matches' : 'coupons match'}`;
+    answer.isError && !stale
+      ? 'No results to show'
+      : total === undefined
+        ? 'Loading coupons…'
+        : page?.totalExact === false
+          ? `More than ${total} coupons match`
+          : `${total} ${total === 1 ? 'coupon matches' : 'coupons match'}`;
   const showCompare = !hydrated || selected.length > 0 || (page !== undefined && page.rows.length > 0 && !(answer.isError && !stale));
   const compareHint = !hydrated
     ? `Tick ${COMPARE_MIN} to ${COMPARE_MAX} coupons to compare them.`

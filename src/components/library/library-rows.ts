@@ -71,7 +71,9 @@ export class LibraryLoadError extends Error {
 
 /** One page from `GET /api/coupons` for a library query (see library-url.ts). */
 export async function fetchLibraryPage(query: string): Promise<LibraryResults> {
-  const answer = await callApi<{ coupons: ListedCoupon[]; total: number; totalExact?: boolean; nextCursor: string | null }>(`/api/coupons${query ? `?${query}` : ''}`);
+  const answer = await callApi<{ coupons: ListedCoupon[]; total: number; totalExact?: boolean; nextCursor: string | null }>(
+    `/api/coupons${query ? `?${query}` : ''}`,
+  );
   if (!answer.ok) throw new LibraryLoadError(answer.message, answer.status, answer.field);
   return { rows: answer.body.coupons.map(toRow), total: answer.body.total, totalExact: answer.body.totalExact ?? true, nextCursor: answer.body.nextCursor };
 }
