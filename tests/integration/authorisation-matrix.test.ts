@@ -207,6 +207,15 @@ export const matrix: Row[] = [
   { route: 'heat matrix, the same alloy twice', method: 'GET', path: '/api/library/pairs/ti-grade-2+ti-grade-2', expect: all(400) },
   { route: 'heat matrix of one alloy', method: 'GET', path: '/api/library/alloys/steel-1084', expect: all(200) },
   { route: 'heat matrix of one alloy, unknown', method: 'GET', path: '/api/library/alloys/%00', expect: all(400) },
+  // compare (coupons a caller may not see are left out and counted: tests/integration/compare.test.ts)
+  {
+    route: 'compare a public coupon with a private one',
+    method: 'GET',
+    path: (ids) => `/api/compare?ids=${ids.memberCoupon.public},${ids.memberCoupon.private}&ids=${ids.memberCoupon.members}`,
+    expect: all(200),
+  },
+  { route: 'compare, bad ids', method: 'GET', path: '/api/compare?ids=1,x', expect: all(400) },
+  { route: 'compare, one coupon', method: 'GET', path: '/api/compare?ids=1', expect: all(400) },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -311,6 +320,10 @@ describe('no page answers 500 to a stranger', () => {
     '/library/pairs/%00',
     '/library/alloys/copper-c11000',
     '/library/alloys/..%2F..',
+    '/compare',
+    '/compare?ids=1,2',
+    '/compare?ids=1,2,3,4,5',
+    '/compare?ids=%00&ids=x,,&ids=99999999999',
   ];
   it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
     const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });
