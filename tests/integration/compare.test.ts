@@ -169,12 +169,13 @@ async function page(who: Who, path: string): Promise<{ status: number; html: str
 describe('who sees which coupons in a comparison', () => {
   // The visibility rule written out (tests/support/who-sees-what.ts has it too): visitors see
   // public; members also members-only and their own; admins all. The member2 owns the hidden ones.
-  it.each([
+  const cases: [Who, ('a' | 'b' | 'secret' | 'members')[], number][] = [
     ['visitor', ['a', 'b'], 2],
     ['member', ['a', 'b', 'members'], 1],
     ['member2', ['a', 'b', 'secret', 'members'], 0],
     ['admin', ['a', 'b', 'secret', 'members'], 0],
-  ] as const)('%s', async (who, visible, notShown) => {
+  ];
+  it.each(cases)('%s', async (who, visible, notShown) => {
     const asked = [ids.a, ids.b, ids.secret, ids.members];
     const body = await compare(who, `ids=${asked.join(',')}`);
     expect(body.coupons.map((coupon) => coupon.id)).toEqual(visible.map((key) => ids[key]));
@@ -244,7 +245,7 @@ describe('ΔE00 between corresponding layers', () => {
 
 describe('bad ids', () => {
   it.each([
-    ['ids=abc,1', 'ids: must be coupon numbers separated by commas, such as 12,40'],
+    ['ids=abc,1', 'ids: give coupon numbers separated by commas, such as 12,40'],
     ['ids=7', 'ids: choose at least 2 coupons to compare'],
     ['ids=1,2,3,4,5', 'ids: compare at most 4 coupons at a time'],
     ['', 'ids: choose 2 to 4 coupons to compare, such as ids=12,40'],
@@ -255,9 +256,9 @@ describe('bad ids', () => {
   });
 
   it.each([
-    ['ids=abc,1', 'must be coupon numbers separated by commas'],
-    ['ids=7', 'choose at least 2 coupons to compare'],
-    ['ids=1,2,3,4,5', 'compare at most 4 coupons at a time'],
+    ['ids=abc,1', 'Give coupon numbers separated by commas, such as 12,40.'],
+    ['ids=7', 'Choose at least 2 coupons to compare.'],
+    ['ids=1,2,3,4,5', 'Compare at most 4 coupons at a time.'],
   ])('/compare?%s → 400 with the message on the page', async (query, message) => {
     const { status, html } = await page('member', `/compare?${query}`);
     expect(status).toBe(400);
@@ -277,7 +278,10 @@ describe('the coupon page: measured swatch against the predicted band', () => {
     colour: { hex: string; lab: Lab };
   }
   const predict = async (who: Who, alloy: string): Promise<Predicted> => {
-    const response = await api('/api/tint/predict', { jar: jars[who], json: { alloy, process: 'heat', temperatureC: 550, holdMinutes: 30, atmosphere: 'air' } });
+    const response = await api('/api/tint/predict', {
+      jar: jars[who],
+      json: { alloy, process: 'heat', temperatureC: 550, holdMinutes: 30, atmosphere: 'air' },
+    });
     expect(response.status).toBe(200);
     return response.json();
   };

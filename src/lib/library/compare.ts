@@ -27,7 +27,7 @@ export const compareQuerySchema = z.object({
         .map((part) => part.trim())
         .filter((part) => part !== '');
       if (parts.some((part) => !ID_PATTERN.test(part))) {
-        context.addIssue({ code: 'custom', message: 'must be coupon numbers separated by commas, such as 12,40' });
+        context.addIssue({ code: 'custom', message: 'give coupon numbers separated by commas, such as 12,40' });
         return z.NEVER;
       }
       return [...new Set(parts.map(Number))];
@@ -46,6 +46,18 @@ export function compareQueryFrom(params: URLSearchParams): { ids?: string } {
   const values = params.getAll('ids');
   return values.length === 0 ? {} : { ids: values.join(',') };
 }
+
+/** The well-formed ids of a refused `ids` (at most MAX_COMPARED), so a page can keep them in its form. */
+export function usableIds(ids: string | undefined): number[] {
+  const parts = (ids ?? '')
+    .slice(0, MAX_IDS_TEXT)
+    .split(',')
+    .map((part) => part.trim());
+  return [...new Set(parts.filter((part) => ID_PATTERN.test(part)).map(Number))].slice(0, MAX_COMPARED);
+}
+
+/** A refusal of the `ids` as a sentence for the page ("Choose at least 2 coupons to compare."). */
+export const compareProblemSentence = (message: string): string => `${message.charAt(0).toUpperCase()}${message.slice(1)}.`;
 
 /** The shareable URL of a comparison. */
 export const compareHref = (ids: readonly number[]): string => `/compare?ids=${ids.join(',')}`;

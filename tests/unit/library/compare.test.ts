@@ -6,6 +6,7 @@ import {
   layerDifferences,
   matchLayers,
   notShownNote,
+  usableIds,
   withoutCoupon,
   type ComparedLayer,
   type LayerRef,
@@ -41,15 +42,21 @@ describe('the ids of a compare URL', () => {
     ['no ids at all', '', 'choose 2 to 4 coupons to compare, such as ids=12,40'],
     ['one id', 'ids=3', 'choose at least 2 coupons to compare'],
     ['five ids', 'ids=1,2,3,4,5', 'compare at most 4 coupons at a time'],
-    ['a word', 'ids=1,two', 'must be coupon numbers separated by commas, such as 12,40'],
-    ['a negative number', 'ids=1,-2', 'must be coupon numbers separated by commas, such as 12,40'],
-    ['a leading zero', 'ids=1,02', 'must be coupon numbers separated by commas, such as 12,40'],
-    ['an exponent', 'ids=1,1e2', 'must be coupon numbers separated by commas, such as 12,40'],
-    ['zero', 'ids=0,1', 'must be coupon numbers separated by commas, such as 12,40'],
-    ['a number past any id', 'ids=1,12345678901', 'must be coupon numbers separated by commas, such as 12,40'],
+    ['a word', 'ids=1,two', 'give coupon numbers separated by commas, such as 12,40'],
+    ['a negative number', 'ids=1,-2', 'give coupon numbers separated by commas, such as 12,40'],
+    ['a leading zero', 'ids=1,02', 'give coupon numbers separated by commas, such as 12,40'],
+    ['an exponent', 'ids=1,1e2', 'give coupon numbers separated by commas, such as 12,40'],
+    ['zero', 'ids=0,1', 'give coupon numbers separated by commas, such as 12,40'],
+    ['a number past any id', 'ids=1,12345678901', 'give coupon numbers separated by commas, such as 12,40'],
     ['a very long list', `ids=${'1,'.repeat(150)}2`, 'choose at most 4 coupons to compare'],
   ])('refuses %s, naming the field', (_label, query, message) => {
     expect(problemOf(query)).toEqual({ field: 'ids', message });
+  });
+
+  it('keeps the well-formed ids of a refused list for the page’s form', () => {
+    expect(usableIds('7,abc,7,,12')).toEqual([7, 12]);
+    expect(usableIds('1,2,3,4,5')).toEqual([1, 2, 3, 4]);
+    expect(usableIds(undefined)).toEqual([]);
   });
 
   it('links: remove a coupon, or make one the reference, keeping the rest in order', () => {

@@ -11,7 +11,14 @@ const ciede2000 = differenceCiede2000();
 const independentDeltaE = (x: { l: number; a: number; b: number }, y: { l: number; a: number; b: number }) =>
   ciede2000({ mode: 'lab65', ...x }, { mode: 'lab65', ...y });
 
-const heat = (changes: Partial<CouponHeat>): CouponHeat => ({ process: 'oven', temperatureC: 550, holdSeconds: 3600, volts: null, atmosphere: 'air', ...changes });
+const heat = (changes: Partial<CouponHeat>): CouponHeat => ({
+  process: 'oven',
+  temperatureC: 550,
+  holdSeconds: 3600,
+  volts: null,
+  atmosphere: 'air',
+  ...changes,
+});
 
 describe('the heat planner’s request for a coupon’s own heat', () => {
   it('a heat: temperature, hold in minutes and the coupon’s atmosphere', () => {
@@ -31,7 +38,11 @@ describe('the heat planner’s request for a coupon’s own heat', () => {
   it.each([
     ['anodizing without volts', heat({ process: 'anodize', volts: null }), 'The coupon records no anodizing voltage, so the model cannot predict its tint.'],
     ['a heat without temperature', heat({ temperatureC: null }), 'The coupon records no temperature, so the model cannot predict its tint.'],
-    ['a heat without either', heat({ temperatureC: null, holdSeconds: null }), 'The coupon records no temperature or hold time, so the model cannot predict its tint.'],
+    [
+      'a heat without either',
+      heat({ temperatureC: null, holdSeconds: null }),
+      'The coupon records no temperature or hold time, so the model cannot predict its tint.',
+    ],
   ])('says plainly why not: %s', (_label, coupon, reason) => {
     expect(plannerRequestOf('ti-grade-2', coupon)).toEqual({ ok: false, reason });
   });

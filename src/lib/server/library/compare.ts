@@ -46,7 +46,13 @@ async function firstPhotos(couponIds: number[]): Promise<Map<number, ComparedPho
   const first = new Map<number, ComparedPhoto>();
   for (const row of rows) {
     if (first.has(row.couponId)) continue;
-    first.set(row.couponId, { id: row.id, width: row.width, height: row.height, displayUrl: await viewUrl(row.displayKey), thumbUrl: await viewUrl(row.thumbKey) });
+    first.set(row.couponId, {
+      id: row.id,
+      width: row.width,
+      height: row.height,
+      displayUrl: await viewUrl(row.displayKey),
+      thumbUrl: await viewUrl(row.thumbKey),
+    });
   }
   return first;
 }
