@@ -9,6 +9,8 @@ export interface LayerAgainstModel {
   position: number;
   alloy: string;
   alloyName: string;
+  /** Whether the coupon was anodized (a voltage) rather than heated. */
+  anodized: boolean;
   /** The strip with the swatch (and the band, when predicted); null without an optical model. */
   view: MeasuredOnLadder | null;
   prediction: Prediction | null;
@@ -28,7 +30,7 @@ export async function measuredVersusPredicted(coupon: CouponRecord, viewer: View
   for (const layer of coupon.layerDetails) {
     const swatch = swatches.get(layer.id);
     if (!swatch) continue;
-    const base = { position: layer.position, alloy: layer.alloy, alloyName: layer.alloyName };
+    const base = { position: layer.position, alloy: layer.alloy, alloyName: layer.alloyName, anodized: coupon.process === 'anodize' };
     const model = findTintModel(layer.alloy);
     const noOptics = model ? missingModelReason(model, 'optics') : `${layer.alloyName} has no tint model yet: library data only.`;
     if (!model || noOptics) {
