@@ -1,5 +1,6 @@
-// Seeds the alloy catalogue (every run, by slug) and the invented demo (first run only, unless
-// OXBLOOM_DEMO=0). Run with DATABASE_URL set; `npm start` and `npm test` do it for you.
+// Seeds the alloy catalogue (every run, by slug) and the invented demo: people, coupons, the test
+// series and their photos (first run only, unless OXBLOOM_DEMO=0). Run with DATABASE_URL set;
+// `npm start` and `npm test` do it for you.
 import { hash } from '@node-rs/argon2';
 import { eq, inArray, sql } from 'drizzle-orm';
 import { createDatabase, type Database } from '../../db/client';
@@ -8,9 +9,13 @@ import { alloyCatalogue, layerKeyOf } from '~/lib/alloys';
 import { demoPassword, demoPeople } from './people';
 import { demoCoupons } from './coupons';
 import { seedDemoPhotos } from './photos';
+import { seriesCoupons } from './series';
 
 const DEMO_MARKER = 'demo-seeded';
 const PHOTOS_MARKER = 'demo-photos-seeded';
+
+/** Everyone in the demo but the admin owns coupons. */
+const demoOwners = () => demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
 
 async function seedAlloys(db: Database) {
   for (const alloy of alloyCatalogue) {
@@ -43,8 +48,8 @@ async function seedDemoRecords(db: Database) {
         ),
       );
     const idByEmail = new Map(people.map((person) => [person.email, person.id]));
-    const owners = demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
-    for (const demo of demoCoupons(owners)) {
+    const owners = demoOwners();
+    for (const demo of [...demoCoupons(owners), ...seriesCoupons(owners)]) {
       const [{ id }] = await tx
         .insert(coupons)
         .values({ ...demo.coupon, ownerId: idByEmail.get(demo.ownerEmail)!, layerKey: layerKeyOf(demo.layers) })
@@ -71,7 +76,8 @@ async function main() {
     }
     // Photos need storage too; a start that stopped half-way finishes them next time.
     if (!(await hasMarker(db, PHOTOS_MARKER))) {
-      console.log(`[oxbloom] demo photos: ${await seedDemoPhotos(db)} stored and measured.`);
+      const seriesTitles = new Set(seriesCoupons(demoOwners()).map((demo) => demo.coupon.title));
+      console.log(`[oxbloom] demo photos: ${await seedDemoPhotos(db, seriesTitles)} stored and measured.`);
       await db.insert(appSettings).values({ key: PHOTOS_MARKER, value: new Date().toISOString() });
     } else {
       console.log('[oxbloom] demo already seeded; kept as it is.');
