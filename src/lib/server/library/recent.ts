@@ -1,0 +1,141 @@
+import { and, asc, eq, inArray, isNotNull, lte, sql } from 'drizzle-orm';
+import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
+import { findAlloy } from '~/lib/alloys';
+import { db } from '~/lib/server/db';
+
+/** One layer's dominant measured colour on a recent coupon. */
+export interface RecentSwatch {
+  alloy: string;
+  hex: string;
+}
+
+export interface RecentCoupon {
+  id: number;
+  title: string;
+  process: (typeof coupons.$inferSelect)['process'];
+  temperatureC: number | null;
+  holdSeconds: number | null;
+  volts: number | null;
+  createdAt: Date;
+  /** One per alloy of the pair, in the pair's order; an alloy whose layer has no measured swatch is left out. */
+  swatches: RecentSwatch[];
+}
+
+export interface RecentPair {
+  /** The two alloy slugs, sorted (as in the coupons' layer key). */
+  alloys: [RecentAlloy, RecentAlloy];
+  /** The library filtered to this pair, and the pair's matrix of heats. */
+  libraryHref: string;
+  matrixHref: string;
+  coupons: RecentCoupon[];
+}
+
+interface RecentAlloy {
+  slug: string;
+  name: string;
+}
+
+export interface RecentLimits {
+  pairs: number;
+  perPair: number;
+}
+
+/** A layer key naming exactly two alloys ("a+b"). */
+const twoAlloys = sql`${coupons.layerKey} like '%+%' and ${coupons.layerKey} not like '%+%+%'`;
+
+/** A coupon with at least one measured colour on a layer (region means left out). */
+const measured = sql`exists (select 1 from ${swatches} where ${swatches.couponId} = ${coupons.id} and ${swatches.layerId} is not null and ${swatches.isMean} = false)`;
+
+/**
+ * The front page's "recent in the library": the alloy pairs with the most recently logged public
+ * coupons that have measured swatches, newest pair first, each with its newest such coupons and
+ * each coupon's dominant swatch per alloy. Public coupons only, whoever asks: it is the front page.
+ */
+export async function recentPublicPairs(limits: RecentLimits = { pairs: 6, perPair: 6 }): Promise<RecentPair[]> {
+  const ranked = db()
+    .select({
+      id: coupons.id,
+      layerKey: coupons.layerKey,
+      title: coupons.title,
+      process: coupons.process,
+      temperatureC: coupons.temperatureC,
+      holdSeconds: coupons.holdSeconds,
+      volts: coupons.volts,
+      createdAt: coupons.createdAt,
+      couponRank: sql<number>`row_number() over (partition by ${coupons.layerKey} order by ${coupons.createdAt} desc, ${coupons.id} desc)`.as('coupon_rank'),
+      pairLatest: sql<Date>`max(${coupons.createdAt}) over (partition by ${coupons.layerKey})`.as('pair_latest'),
+    })
+    .from(coupons)
+    .where(and(eq(coupons.visibility, 'public'), twoAlloys, measured))
+    .as('ranked');
+  const paired = db()
+    .select({
+      id: ranked.id,
+      layerKey: ranked.layerKey,
+      title: ranked.title,
+      process: ranked.process,
+      temperatureC: ranked.temperatureC,
+      holdSeconds: ranked.holdSeconds,
+      volts: ranked.volts,
+      createdAt: ranked.createdAt,
+      couponRank: ranked.couponRank,
+      pairRank: sql<number>`dense_rank() over (order by ${ranked.pairLatest} desc, ${ranked.layerKey})`.as('pair_rank'),
+    })
+    .from(ranked)
+    .where(lte(ranked.couponRank, limits.perPair))
+    .as('paired');
+  const rows = await db().select().from(paired).where(lte(paired.pairRank, limits.pairs)).orderBy(asc(paired.pairRank), asc(paired.couponRank));
+  const dominant = await dominantByCoupon(rows.map((row) => row.id));
+
+  const pairs = new Map<string, RecentPair>();
+  for (const row of rows) {
+    let pair = pairs.get(row.layerKey);
+    if (!pair) {
+      const [a, b] = row.layerKey.split('+').map((slug) => ({ slug, name: findAlloy(slug)?.name ?? slug }));
+      const key = `${a.slug}+${b.slug}`;
+      pair = { alloys: [a, b], libraryHref: `/library?pair=${key}`, matrixHref: `/library/pairs/${key}`, coupons: [] };
+      pairs.set(row.layerKey, pair);
+    }
+    const layers = dominant.get(row.id) ?? [];
+    pair.coupons.push({
+      id: row.id,
+      title: row.title,
+      process: row.process,
+      temperatureC: row.temperatureC,
+      holdSeconds: row.holdSeconds,
+      volts: row.volts,
+      createdAt: new Date(row.createdAt),
+      // The first layer of each alloy with a measured colour, in the pair's order.
+      swatches: pair.alloys.flatMap(({ slug }) => layers.find((layer) => layer.alloy === slug) ?? []),
+    });
+  }
+  return [...pairs.values()];
+}
+
+/**
+ * Each coupon's layers (by position) with their dominant swatch: the measured cluster with the
+ * largest share over all the coupon's photos, means left out, ties to the older swatch — as the
+ * library's list shows it. Layers with no measured colour are left out.
+ */
+async function dominantByCoupon(couponIds: number[]): Promise<Map<number, RecentSwatch[]>> {
+  const byCoupon = new Map<number, RecentSwatch[]>();
+  if (couponIds.length === 0) return byCoupon;
+  const ranked = db()
+    .select({
+      layerId: swatches.layerId,
+      hex: swatches.hex,
+      rank: sql<number>`row_number() over (partition by ${swatches.layerId} order by ${swatches.share} desc, ${swatches.id} asc)`.as('share_rank'),
+    })
+    .from(swatches)
+    .where(and(inArray(swatches.couponId, couponIds), isNotNull(swatches.layerId), eq(swatches.isMean, false)))
+    .as('ranked_swatches');
+  const rows = await db()
+    .select({ couponId: couponLayers.couponId, alloy: alloys.slug, hex: ranked.hex })
+    .from(couponLayers)
+    .innerJoin(alloys, eq(alloys.id, couponLayers.alloyId))
+    .innerJoin(ranked, and(eq(ranked.layerId, couponLayers.id), eq(ranked.rank, 1)))
+    .where(inArray(couponLayers.couponId, couponIds))
+    .orderBy(asc(couponLayers.couponId), asc(couponLayers.position));
+  for (const row of rows) byCoupon.set(row.couponId, [...(byCoupon.get(row.couponId) ?? []), { alloy: row.alloy, hex: row.hex }]);
+  return byCoupon;
+}
