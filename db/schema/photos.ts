@@ -66,6 +66,8 @@ export const regions = mysqlTable(
     y: int('y').notNull(),
     width: int('width').notNull(),
     height: int('height').notNull(),
+    /** A grey card's reflectance in percent, as the person gave it (null: a standard 18 % card). */
+    reflectance: double('reflectance'),
     ...timestamps,
   },
   (table) => [index('regions_photo_idx').on(table.photoId)],

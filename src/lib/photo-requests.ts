@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { MAX_LAYERS } from './coupons';
 import { plainText } from './text';
-import { isPhotoContentType, MAX_UPLOAD_BYTES, outsideMessage, TOO_BIG, UNACCEPTED_TYPE, type RegionInput } from './photos';
+import { GREY_CARD_REFLECTANCE, isPhotoContentType, MAX_UPLOAD_BYTES, outsideMessage, TOO_BIG, UNACCEPTED_TYPE, type RegionInput } from './photos';
 
 /** The requests of the upload path and the region editor, one zod schema each (routes and tests share them). */
 
@@ -40,7 +40,15 @@ const regionSchema = z.discriminatedUnion(
   'kind',
   [
     z.object({ kind: z.literal('layer'), layerId: z.int({ error: 'Choose the layer this region shows.' }).positive(), ...rectangle }),
-    z.object({ kind: z.literal('grey'), ...rectangle }),
+    z.object({
+      kind: z.literal('grey'),
+      ...rectangle,
+      reflectance: z
+        .number({ error: 'The grey card reflectance is a number (percent).' })
+        .min(GREY_CARD_REFLECTANCE.min, { error: `The grey card reflectance is at least ${GREY_CARD_REFLECTANCE.min} %.` })
+        .max(GREY_CARD_REFLECTANCE.max, { error: `The grey card reflectance is at most ${GREY_CARD_REFLECTANCE.max} %.` })
+        .optional(),
+    }),
   ],
   { error: "A region's kind is 'layer' or 'grey'." },
 );

@@ -86,14 +86,22 @@ export interface Rectangle {
   height: number;
 }
 
-/** A region as sent: one per layer of the coupon, and at most one on a grey card. */
-export type RegionInput = ({ kind: 'layer'; layerId: number } | { kind: 'grey' }) & Rectangle;
+/**
+ * A region as sent: one per layer of the coupon, and at most one on a grey card, with the card's
+ * reflectance in percent when it is not a standard 18 % card.
+ */
+export type RegionInput = ({ kind: 'layer'; layerId: number } | { kind: 'grey'; reflectance?: number }) & Rectangle;
 
 export interface RegionView extends Rectangle {
   id: number;
   kind: RegionKind;
   layerId: number | null;
+  /** A grey card's reflectance in percent when the person gave one (null: a standard 18 % card). */
+  reflectance: number | null;
 }
+
+/** A standard grey card reflects 18 % (CIELAB L* 49.5); other cards take a value from 3 to 95 %. */
+export const GREY_CARD_REFLECTANCE = { standard: 18, min: 3, max: 95 } as const;
 
 /** One extracted colour: CIELAB (D65) and OKLab, its share of the region's used pixels, and its spread. */
 export interface SwatchView {
@@ -104,11 +112,13 @@ export interface SwatchView {
   spread: number;
 }
 
-/** The tint band of the layer's alloy whose colour is nearest the region's mean, and the film it means. */
+/** The tint band of the layer's alloy whose colour is nearest the region's dominant film colour, and the film it means. */
 export interface NearestTint {
   name: string;
   thicknessNm: number;
   deltaE00: number;
+  /** Said beside the band when the match could not rest on the photo's exposure (no grey card). */
+  note?: string;
 }
 
 /**

@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import type { PhotoLayer, PhotoView } from '~/lib/photos';
+import { GREY_CARD_REFLECTANCE, type PhotoLayer, type PhotoView } from '~/lib/photos';
 import { removePhoto, saveRegions, StepFailed } from './photo-api';
-import RegionEditor, { marksOf, regionsOf, type Marks } from './RegionEditor';
+import RegionEditor, { GREY, marksOf, reflectanceOf, regionsOf, type Marks } from './RegionEditor';
 import SwatchGroups from './SwatchGroups';
 
 interface Props {
@@ -18,17 +18,23 @@ const facts = (photo: PhotoView) =>
 /** One photo: its regions (editable by the owner), its swatches per layer, and what the camera recorded. */
 export default function PhotoCard({ photo, layers, editable, onChanged, onDeleted }: Props) {
   const [marks, setMarks] = useState<Marks>(() => marksOf(photo));
+  const [reflectance, setReflectance] = useState(() => reflectanceOf(photo));
   const [busy, setBusy] = useState<'saving' | 'deleting' | null>(null);
   const [message, setMessage] = useState<{ text: string; error?: boolean }>();
-  const saved = JSON.stringify(regionsOf(marksOf(photo), layers));
-  const changed = JSON.stringify(regionsOf(marks, layers)) !== saved;
+  const saved = JSON.stringify(regionsOf(marksOf(photo), layers, reflectanceOf(photo)));
+  const changed = JSON.stringify(regionsOf(marks, layers, reflectance)) !== saved;
+  const undo = () => {
+    setMarks(marksOf(photo));
+    setReflectance(reflectanceOf(photo));
+  };
 
   async function save() {
     setBusy('saving');
     setMessage({ text: 'Measuring the regions…' });
     try {
-      const updated = await saveRegions(photo.id, regionsOf(marks, layers));
+      const updated = await saveRegions(photo.id, regionsOf(marks, layers, reflectance));
       setMarks(marksOf(updated));
+      setReflectance(reflectanceOf(updated));
       onChanged(updated);
       setMessage({ text: 'Regions saved; swatches updated.' });
     } catch (error) {
@@ -65,12 +71,30 @@ export default function PhotoCard({ photo, layers, editable, onChanged, onDelete
             <button type="button" className="btn btn-primary" disabled={!changed || busy !== null} onClick={save}>
               Save regions
             </button>
-            <button type="button" className="btn" disabled={!changed || busy !== null} onClick={() => setMarks(marksOf(photo))}>
+            <button type="button" className="btn" disabled={!changed || busy !== null} onClick={undo}>
               Undo changes
             </button>
             <button type="button" className="btn btn-danger" disabled={busy !== null} onClick={remove}>
               Delete photo
             </button>
+          </div>
+        )}
+        {editable && marks[GREY] && (
+          <div className="field">
+            <label htmlFor={`grey-reflectance-${photo.id}`}>Grey card reflectance (%)</label>
+            <input
+              id={`grey-reflectance-${photo.id}`}
+              className="input w-28"
+              inputMode="decimal"
+              placeholder={String(GREY_CARD_REFLECTANCE.standard)}
+              value={reflectance}
+              disabled={busy !== null}
+              onChange={(event) => setReflectance(event.target.value)}
+            />
+            <p className="field-hint">
+              Leave empty for a standard {GREY_CARD_REFLECTANCE.standard} % grey card (L* 50). The card sets the colour balance and the exposure, so the film is
+              read at its true lightness.
+            </p>
           </div>
         )}
         {message && (

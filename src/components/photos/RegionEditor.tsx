@@ -16,14 +16,21 @@ export function marksOf(photo: PhotoView): Marks {
   return marks;
 }
 
-/** The marks as the API takes them: layers in their order, then the grey card. */
-export function regionsOf(marks: Marks, layers: PhotoLayer[]): RegionInput[] {
+/** The grey card's reflectance (percent) as saved, or '' for a standard card: what its field starts with. */
+export function reflectanceOf(photo: PhotoView): string {
+  const reflectance = photo.regions.find((region) => region.kind === 'grey')?.reflectance;
+  return reflectance === null || reflectance === undefined ? '' : String(reflectance);
+}
+
+/** The marks as the API takes them: layers in their order, then the grey card with its reflectance when one is typed. */
+export function regionsOf(marks: Marks, layers: PhotoLayer[], greyReflectance = ''): RegionInput[] {
   const regions: RegionInput[] = [];
   for (const layer of layers) {
     const mark = marks[layerMark(layer.id)];
     if (mark) regions.push({ kind: 'layer', layerId: layer.id, ...mark });
   }
-  if (marks[GREY]) regions.push({ kind: 'grey', ...marks[GREY] });
+  const typed = greyReflectance.trim().replace(',', '.');
+  if (marks[GREY]) regions.push({ kind: 'grey', ...marks[GREY], ...(typed ? { reflectance: Number(typed) } : {}) });
   return regions;
 }
 

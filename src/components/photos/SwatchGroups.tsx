@@ -31,8 +31,9 @@ export default function SwatchGroups({ photo, layers }: { photo: PhotoView; laye
             <h4 className="text-sm font-semibold text-ash-800">{title}</h4>
             {group.tint && (
               <p className="mb-1 text-sm text-ash-700">
-                Nearest tint band: <strong className="font-semibold">{group.tint.name}</strong>, a film of about {Math.round(group.tint.thicknessNm)} nm (ΔE00{' '}
-                {group.tint.deltaE00.toFixed(1)})
+                Nearest tint band to the main colour: <strong className="font-semibold">{group.tint.name}</strong>, a film of about{' '}
+                {Math.round(group.tint.thicknessNm)} nm (ΔE00 {group.tint.deltaE00.toFixed(1)})
+                {group.tint.note && <span className="block text-xs text-ash-600">{group.tint.note}</span>}
               </p>
             )}
             {group.swatches.length === 0 ? (
@@ -49,8 +50,10 @@ export default function SwatchGroups({ photo, layers }: { photo: PhotoView; laye
         );
       })}
       <p className="text-xs text-ash-600">
-        {photo.whiteBalanced ? 'White-balanced from the grey card.' : 'Not white-balanced: mark a grey card to remove the light’s colour cast.'} Colours are
-        CIELAB (D65); screen and print show them only approximately.
+        {photo.whiteBalanced
+          ? 'White-balanced and exposed from the grey card.'
+          : 'Not white-balanced: mark a grey card to remove the light’s colour cast and set the exposure.'}{' '}
+        Colours are CIELAB (D65); screen and print show them only approximately.
       </p>
     </div>
   );

@@ -16,27 +16,29 @@ import {
   type WhiteBalance,
 } from './schemas';
 import { toSwatch } from './swatch';
-import { whiteBalanceMatrix } from './white-balance';
+import { exposureFactor, whiteBalanceMatrix } from './white-balance';
 
 /** The seed every analysis starts from, so the same photo always gives the same swatches. */
 const ANALYSIS_SEED = 0x0b100d;
 
 /**
  * The colours of each region of a photo: pixels too dark or too bright are left out, the grey
- * card's cast is removed, and the rest are clustered in OKLab. Same input, same output.
+ * card's cast is removed and exposure set from its known reflectance, and the rest are clustered
+ * in OKLab. Same input, same output.
  */
 export function analyseImage(image: PixelImage, options: AnalysisOptions = {}): ImageAnalysis {
-  const { regions, grey, k, adaptation } = AnalysisOptionsSchema.parse(options);
+  const { regions, grey, k, adaptation, greyReflectance } = AnalysisOptionsSchema.parse(options);
   let matrix: Matrix3 | undefined;
   let whiteBalance: WhiteBalance | null = null;
   if (grey) {
     const greyRegion = clipRegion(grey, image);
     const photographed = collectPixels(image, greyRegion);
-    matrix = photographed.counts.used > 0 ? whiteBalanceMatrix(photographed.linearMean, adaptation) : undefined;
+    matrix = photographed.counts.used > 0 ? whiteBalanceMatrix(photographed.linearMean, adaptation, greyReflectance) : undefined;
     if (!matrix) {
       throw new AnalysisInputError('grey-card-unusable', 'The grey card region has no usable pixels (all too dark, too bright or one channel empty).');
     }
-    whiteBalance = { adaptation, grey: greyRegion, greyMean: meanSwatch(photographed.oklab) };
+    const exposure = Math.round(exposureFactor(photographed.linearMean, matrix) * 1000) / 1000;
+    whiteBalance = { adaptation, grey: greyRegion, greyMean: meanSwatch(photographed.oklab), greyReflectance, exposure };
   }
   const targets = regions.length > 0 ? regions : [wholeImage(image)];
   return {

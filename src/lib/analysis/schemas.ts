@@ -22,6 +22,12 @@ export type Region = z.infer<typeof RegionSchema>;
 export const AdaptationSchema = z.enum(['rgb-von-kries', 'bradford']);
 export type Adaptation = z.infer<typeof AdaptationSchema>;
 
+/** A grey card's reflectance, in percent of a perfect white (a standard card is 18 %). */
+export const GreyReflectanceSchema = z
+  .number({ error: 'The grey card reflectance is a number (percent).' })
+  .min(3, { error: 'The grey card reflectance is at least 3 %.' })
+  .max(95, { error: 'The grey card reflectance is at most 95 %.' });
+
 export const AnalysisOptionsSchema = z.object({
   /** Regions to analyse, each on its own; none means the whole image. */
   regions: z.array(RegionSchema).max(16).default([]),
@@ -30,6 +36,11 @@ export const AnalysisOptionsSchema = z.object({
   /** Exact number of swatches per region; without it the count is chosen (see choose-clusters.ts). */
   k: z.int().min(1).max(MAX_SWATCHES).optional(),
   adaptation: AdaptationSchema.default('rgb-von-kries'),
+  /**
+   * The grey card's reflectance in percent (18 for a standard card, L* 49.5): with a grey region
+   * the card is set to it, so exposure is corrected as well as the cast.
+   */
+  greyReflectance: GreyReflectanceSchema.default(18),
 });
 export type AnalysisOptions = z.input<typeof AnalysisOptionsSchema>;
 export type ParsedAnalysisOptions = z.output<typeof AnalysisOptionsSchema>;
@@ -67,6 +78,10 @@ export const WhiteBalanceSchema = z.object({
   grey: RegionSchema,
   /** The grey card's mean colour as photographed, before correction. */
   greyMean: SwatchSchema,
+  /** The reflectance (percent) the card was set to. */
+  greyReflectance: z.number(),
+  /** The factor the photo's light was multiplied by to give the card that reflectance (1 = as photographed). */
+  exposure: z.number(),
 });
 export type WhiteBalance = z.infer<typeof WhiteBalanceSchema>;
 

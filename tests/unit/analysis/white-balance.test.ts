@@ -15,6 +15,17 @@ describe('white balance from a grey card', () => {
     corrected.forEach((channel) => expect(channel).toBeCloseTo(luminance, 10));
   });
 
+  // Source: the nominal grey card, 18 % reflectance (Y = 0.18, CIELAB L* 49.5 per CIE 15 L* = 116·Y^(1/3) − 16);
+  // with its reflectance given, the card comes out neutral at that luminance whatever the photo's exposure.
+  it.each(['rgb-von-kries', 'bradford'] as const)('%s with a reflectance sets the card to it (exposure)', (adaptation) => {
+    for (const scale of [0.3, 1, 2.5]) {
+      const grey: Vector3 = [0.33 * scale * 0.2, 0.15 * scale * 0.2, 0.042 * scale * 0.2];
+      const corrected = applyMatrix(whiteBalanceMatrix(grey, adaptation, 18)!, grey);
+      corrected.forEach((channel) => expect(channel).toBeCloseTo(0.18, 10));
+      expect(116 * Math.cbrt(applyMatrix(LINEAR_RGB_TO_XYZ, corrected)[1]) - 16).toBeCloseTo(49.5, 1);
+    }
+  });
+
   it('refuses a grey with an empty channel', () => {
     expect(whiteBalanceMatrix([0.2, 0.1, 0], 'rgb-von-kries')).toBeUndefined();
   });

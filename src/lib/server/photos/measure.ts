@@ -63,7 +63,8 @@ export async function analysePhoto(buffer: Uint8Array, options: AnalysisOptions 
 
 /**
  * From drawn regions to the analysis: layer regions are measured each on its own, in the order
- * given, white-balanced by the grey card when there is one; with no layer region the whole photo
+ * given, white-balanced and exposed by the grey card when there is one (at the reflectance the
+ * person gave, else a standard 18 % card); with no layer region the whole photo
  * is measured (its swatches then belong to no layer). A region that cannot be measured is a 422.
  */
 export function analyseRegions(image: AnalysisImage, regions: RegionInput[]): PhotoAnalysis {
@@ -71,7 +72,12 @@ export function analyseRegions(image: AnalysisImage, regions: RegionInput[]): Ph
   const grey = regions.find((region) => region.kind === 'grey');
   const rectangle = ({ x, y, width, height }: RegionInput) => ({ x, y, width, height });
   try {
-    return analyseDecoded(image, { regions: layers.map(rectangle), grey: grey && rectangle(grey) });
+    const greyReflectance = grey?.kind === 'grey' ? grey.reflectance : undefined;
+    return analyseDecoded(image, {
+      regions: layers.map(rectangle),
+      grey: grey && rectangle(grey),
+      ...(greyReflectance !== undefined ? { greyReflectance } : {}),
+    });
   } catch (error) {
     if (error instanceof AnalysisInputError) throw new Refused(422, error.message, 'regions');
     throw error;

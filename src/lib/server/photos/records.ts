@@ -138,8 +138,9 @@ export async function writeRegions(
   const groups: { regionId: number | null; layerId: number | null }[] = [];
   for (const region of drawn) {
     const layerId = region.kind === 'layer' ? region.layerId : null;
+    const reflectance = region.kind === 'grey' ? (region.reflectance ?? null) : null;
     const { x, y, width, height } = region;
-    const [{ id }] = await writer.insert(regions).values({ photoId: photo.id, kind: region.kind, layerId, x, y, width, height }).$returningId();
+    const [{ id }] = await writer.insert(regions).values({ photoId: photo.id, kind: region.kind, layerId, x, y, width, height, reflectance }).$returningId();
     if (region.kind === 'layer') groups.push({ regionId: id, layerId });
   }
   if (layerRegions.length === 0) groups.push({ regionId: null, layerId: null });
