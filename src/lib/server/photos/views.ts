@@ -43,6 +43,7 @@ export async function photoViews(couponId: number): Promise<PhotoView[]> {
         else group.swatches[swatch.rank - 1] = swatchView(swatch);
         groups.set(groupKey, group);
       }
+      const whiteBalanced = own.some((region) => region.kind === 'grey');
       return {
         id: row.id,
         couponId: row.couponId,
@@ -58,11 +59,13 @@ export async function photoViews(couponId: number): Promise<PhotoView[]> {
         createdAt: row.createdAt.toISOString(),
         displayUrl: await viewUrl(row.displayKey),
         thumbUrl: await viewUrl(row.thumbKey),
-        regions: own.map(({ id, kind, layerId, x, y, width, height }) => ({ id, kind, layerId, x, y, width, height })),
-        whiteBalanced: own.some((region) => region.kind === 'grey'),
+        regions: own.map(({ id, kind, layerId, x, y, width, height, reflectance }) => ({ id, kind, layerId, x, y, width, height, reflectance })),
+        whiteBalanced,
         groups: [...groups.values()].map((group) => {
           const alloy = group.layerId === null ? undefined : alloyOf.get(group.layerId);
-          const tint = alloy && group.mean ? nearestTint(alloy, group.mean.lab) : null;
+          // The film is read from the dominant cluster: a mean blends in shadow, scale and glints.
+          const dominant = group.swatches.find(Boolean);
+          const tint = alloy && dominant ? nearestTint(alloy, dominant.lab, whiteBalanced ? 'absolute' : 'down-weighted') : null;
           return { ...group, swatches: group.swatches.filter(Boolean), tint };
         }),
       };
