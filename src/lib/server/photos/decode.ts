@@ -1,5 +1,5 @@
 import sharp from 'sharp';
-import type { PixelImage } from '~/lib/analysis';
+import { shrinkRejectingGlare, type PixelImage } from '~/lib/analysis';
 import { kindMismatchMessage, sameImageKind, type PhotoContentType } from '~/lib/photos';
 import { decodeHeic, isHeic } from './heic-worker';
 import { carriesPosition, readExif, type PhotoExif } from './metadata';
@@ -13,7 +13,7 @@ import { carriesPosition, readExif, type PhotoExif } from './metadata';
 
 /** Photos above 100 megapixels are refused before decoding (a 50 MP camera is 8688×5792). */
 export const MAX_INPUT_PIXELS = 100_000_000;
-/** Long side of the copy colours are measured on; JPEGs are decoded straight at 1/2, 1/4 or 1/8 scale. */
+/** Long side of the copy colours are measured on (see shrinkForAnalysis). */
 export const ANALYSIS_LONG_SIDE = 1024;
 
 const ACCEPTED_FORMATS = new Set(['jpeg', 'png', 'webp', 'heif']);
@@ -120,10 +120,38 @@ export interface AnalysisImage {
   pixels: PixelImage;
 }
 
+/** Cells of at least this many decoded pixels a side make one analysed pixel, so a glint in a cell can be told from the film around it. */
+const MIN_CELL = 2;
+
+/** Size of the analysis copy of an image: at most ANALYSIS_LONG_SIDE on the long side, never enlarged. */
+export function analysisSize(width: number, height: number): { width: number; height: number } {
+  const scale = Math.min(1, ANALYSIS_LONG_SIDE / Math.max(width, height));
+  return { width: Math.max(1, Math.round(width * scale)), height: Math.max(1, Math.round(height * scale)) };
+}
+
+/**
+ * The size decoded before the glint-rejecting shrink: the smallest whole-number reduction (1/8,
+ * 1/4, 1/2 or none) that still leaves cells of MIN_CELL pixels a side, so libjpeg can decode a
+ * JPEG straight at that scale; its block averaging over 2–8 pixels is mild beside a resize to 1024.
+ */
+function decodeSize(width: number, height: number): { width: number; height: number } {
+  const target = ANALYSIS_LONG_SIDE * MIN_CELL;
+  const long = Math.max(width, height);
+  const reduction = [8, 4, 2].find((factor) => long / factor >= target) ?? 1;
+  return { width: Math.ceil(width / reduction), height: Math.ceil(height / reduction) };
+}
+
 async function shrinkForAnalysis(opened: OpenedImage): Promise<AnalysisImage> {
-  // Resizing in the same pipeline as the decode lets libjpeg decode at 1/2, 1/4 or 1/8 scale.
-  const pixels = await toPixels(opened.pipeline().resize(fitInside(ANALYSIS_LONG_SIDE)));
-  return { width: opened.width, height: opened.height, pixels };
+  const { width, height } = opened;
+  const target = analysisSize(width, height);
+  if (target.width === width && target.height === height) return { width, height, pixels: await toPixels(opened.pipeline()) };
+  // Resizing in the same pipeline as the decode lets libjpeg decode at 1/2, 1/4 or 1/8 scale;
+  // 'nearest' then only picks pixels (no blending) if a step is left.
+  const decoded = decodeSize(width, height);
+  const pipeline = opened.pipeline();
+  if (decoded.width !== width || decoded.height !== height) pipeline.resize({ ...decoded, fit: 'fill', kernel: 'nearest' });
+  const pixels = shrinkRejectingGlare(await toPixels(pipeline), target.width, target.height);
+  return { width, height, pixels };
 }
 
 /** Decodes a photo for analysis only (the quick path used when a region is drawn or edited). */
