@@ -14,72 +14,109 @@ import { PIXEL_LIMITS, type PixelImage } from './pixels';
  */
 export const GLINT_BAND = { relative: 0.25, absolute: 12 } as const;
 
-const linearToSrgb8 = (value: number) => {
+/** Linear light (0–1) → 8-bit sRGB (IEC 61966-2-1), by a table of ENCODE_STEPS steps (finer than one code value everywhere). */
+const ENCODE_STEPS = 16384;
+const ENCODE = Uint8Array.from({ length: ENCODE_STEPS + 1 }, (_, i) => {
+  const value = i / ENCODE_STEPS;
   const encoded = value <= 0.0031308 ? 12.92 * value : 1.055 * value ** (1 / 2.4) - 0.055;
-  return Math.round(Math.min(1, Math.max(0, encoded)) * 255);
-};
+  return Math.round(encoded * 255);
+});
+const encode = (value: number) => ENCODE[Math.round(value * ENCODE_STEPS)];
 
 /** Shrinks `image` to `width` × `height` (each at most the image's own), leaving glints and shadows out of each cell's mean. */
 export function shrinkRejectingGlare(image: PixelImage, width: number, height: number): PixelImage {
   if (width >= image.width && height >= image.height) return image;
   const { data, channels } = image;
+  const rowLength = image.width * channels;
   const out = new Uint8Array(width * height * channels);
   const scaleX = image.width / width;
   const scaleY = image.height / height;
   const maxCell = (Math.ceil(scaleX) + 1) * (Math.ceil(scaleY) + 1);
-  const brightness = new Int16Array(maxCell);
+  const brightness = new Int32Array(maxCell);
   const offsets = new Int32Array(maxCell);
-  const sorted = new Int16Array(maxCell);
+  const sorted = new Int32Array(maxCell);
+  const { darkMax, clippedMin, nearWhiteMin } = PIXEL_LIMITS;
+  const lights = SRGB8_TO_LINEAR;
+  const lefts = Int32Array.from({ length: width + 1 }, (_, ox) => Math.min(image.width, Math.floor(ox * scaleX)));
   for (let oy = 0; oy < height; oy += 1) {
     const top = Math.floor(oy * scaleY);
     const bottom = Math.max(top + 1, Math.floor((oy + 1) * scaleY));
     for (let ox = 0; ox < width; ox += 1) {
-      const left = Math.floor(ox * scaleX);
-      const right = Math.max(left + 1, Math.floor((ox + 1) * scaleX));
+      const left = lefts[ox];
+      const right = Math.max(left + 1, lefts[ox + 1]);
+      // First pass: each pixel's brightness (its brightest channel), the cell's range, and the
+      // linear sums of the pixels PIXEL_LIMITS keeps.
       let n = 0;
+      let lowest = 255;
+      let highest = 0;
+      let r = 0;
+      let g = 0;
+      let b = 0;
+      let kept = 0;
       for (let y = top; y < bottom; y += 1) {
-        let offset = (y * image.width + left) * channels;
+        let offset = y * rowLength + left * channels;
         for (let x = left; x < right; x += 1, offset += channels) {
           if (channels === 4 && data[offset + 3] < 255) continue;
-          const value = Math.max(data[offset], data[offset + 1], data[offset + 2]);
-          // Insertion into a sorted copy: cells hold a few dozen pixels at most.
-          let at = n;
+          const red = data[offset];
+          const green = data[offset + 1];
+          const blue = data[offset + 2];
+          const value = red > green ? (red > blue ? red : blue) : green > blue ? green : blue;
+          brightness[n] = value;
+          offsets[n] = offset;
+          n += 1;
+          if (value < lowest) lowest = value;
+          if (value > highest) highest = value;
+          if (value <= darkMax || value >= clippedMin || (red >= nearWhiteMin && green >= nearWhiteMin && blue >= nearWhiteMin)) continue;
+          r += lights[red];
+          g += lights[green];
+          b += lights[blue];
+          kept += 1;
+        }
+      }
+      const target = (oy * width + ox) * channels;
+      if (n === 0) continue; // all transparent: stays transparent (alpha 0)
+      let medianAt = offsets[0];
+      // A cell whose whole range fits in the band about its darkest pixel has no outlier: every
+      // pixel is within the band of the median. Only the others are sorted.
+      if (highest - lowest > GLINT_BAND.relative * lowest + GLINT_BAND.absolute) {
+        for (let i = 0; i < n; i += 1) {
+          const value = brightness[i];
+          let at = i;
           while (at > 0 && sorted[at - 1] > value) {
             sorted[at] = sorted[at - 1];
             at -= 1;
           }
           sorted[at] = value;
-          brightness[n] = value;
-          offsets[n] = offset;
-          n += 1;
+        }
+        const median = sorted[n >> 1];
+        const band = GLINT_BAND.relative * median + GLINT_BAND.absolute;
+        r = 0;
+        g = 0;
+        b = 0;
+        kept = 0;
+        for (let i = 0; i < n; i += 1) {
+          const value = brightness[i];
+          if (value === median) medianAt = offsets[i];
+          if (value <= darkMax || value >= clippedMin || value - median > band || median - value > band) continue;
+          const offset = offsets[i];
+          const red = data[offset];
+          const green = data[offset + 1];
+          const blue = data[offset + 2];
+          if (red >= nearWhiteMin && green >= nearWhiteMin && blue >= nearWhiteMin) continue;
+          r += lights[red];
+          g += lights[green];
+          b += lights[blue];
+          kept += 1;
         }
       }
-      const target = (oy * width + ox) * channels;
-      if (n === 0) continue; // all transparent: stays transparent (alpha 0)
-      const median = sorted[n >> 1];
-      const band = GLINT_BAND.relative * median + GLINT_BAND.absolute;
-      let r = 0;
-      let g = 0;
-      let b = 0;
-      let kept = 0;
-      for (let i = 0; i < n; i += 1) {
-        const value = brightness[i];
-        if (Math.abs(value - median) > band || value <= PIXEL_LIMITS.darkMax || value >= PIXEL_LIMITS.clippedMin) continue;
-        const offset = offsets[i];
-        if (Math.min(data[offset], data[offset + 1], data[offset + 2]) >= PIXEL_LIMITS.nearWhiteMin) continue;
-        r += SRGB8_TO_LINEAR[data[offset]];
-        g += SRGB8_TO_LINEAR[data[offset + 1]];
-        b += SRGB8_TO_LINEAR[data[offset + 2]];
-        kept += 1;
-      }
       if (kept === 0) {
-        let pick = 0;
-        while (brightness[pick] !== median) pick += 1;
-        out.set(data.subarray(offsets[pick], offsets[pick] + 3), target);
+        out[target] = data[medianAt];
+        out[target + 1] = data[medianAt + 1];
+        out[target + 2] = data[medianAt + 2];
       } else {
-        out[target] = linearToSrgb8(r / kept);
-        out[target + 1] = linearToSrgb8(g / kept);
-        out[target + 2] = linearToSrgb8(b / kept);
+        out[target] = encode(r / kept);
+        out[target + 1] = encode(g / kept);
+        out[target + 2] = encode(b / kept);
       }
       if (channels === 4) out[target + 3] = 255;
     }
