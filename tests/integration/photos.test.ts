@@ -196,6 +196,31 @@ describe('editing regions measures the photo again', () => {
     expect(cleared.groups.map((group) => group.layerId)).toEqual([null]);
   });
 
+  it('keeps a grey card’s reflectance and sets the exposure from it; refuses one out of range', async () => {
+    const target = await coupon('member', 'private');
+    const photo = await storedPhoto(jars.member, target.id, warmJpeg);
+    const [first] = layerRegions(target, true);
+    const marked = (reflectance?: unknown) => [
+      { ...first, ...warm.layers[0].region },
+      { kind: 'grey', ...warm.grey, ...(reflectance === undefined ? {} : { reflectance }) },
+    ];
+    const standard: PhotoView = await (await api(`/api/photos/${photo.id}/regions`, { jar: jars.member, method: 'PUT', json: { regions: marked() } })).json();
+    expect(standard.regions.find((region) => region.kind === 'grey')!.reflectance).toBeNull();
+    const response = await api(`/api/photos/${photo.id}/regions`, { jar: jars.member, method: 'PUT', json: { regions: marked(36) } });
+    expect(response.status).toBe(200);
+    const brighter: PhotoView = await response.json();
+    expect(brighter.regions.find((region) => region.kind === 'grey')!.reflectance).toBe(36);
+    // Source: CIE 15 L* = 116·Y^(1/3) − 16 — a card said to reflect twice as much doubles the film's Y.
+    const lightness = (view: PhotoView) => groupOf(view, target.layerIds[0]).swatches[0].lab.l;
+    const y = (l: number) => ((l + 16) / 116) ** 3;
+    expect(y(lightness(brighter)) / y(lightness(standard))).toBeCloseTo(2, 1);
+
+    const refused = await api(`/api/photos/${photo.id}/regions`, { jar: jars.member, method: 'PUT', json: { regions: marked(120) } });
+    expect(refused.status).toBe(400);
+    expect((await refused.json()).field).toBe('regions.1.reflectance');
+    expect(await db.select().from(regions).where(eq(regions.photoId, photo.id))).toHaveLength(2);
+  });
+
   it('refuses bad regions with a 400 and keeps the saved ones', async () => {
     const target = await coupon('member', 'private');
     const photo = await storedPhoto(jars.member, target.id, warmJpeg, { regions: layerRegions(target) });

@@ -56,6 +56,11 @@ describe('regions', () => {
     ['none at all', [], null],
     ['a layer twice', [layer(1), layer(1, 20)], 'Mark each layer once.'],
     ['two grey cards', [grey, grey], 'Mark at most one grey card.'],
+    // Source: a standard grey card reflects 18 % (common practice); 3–95 % is our range for other cards.
+    ['a grey card of 18 %', [{ ...grey, reflectance: 18 }], null],
+    ['a grey card of 2 %', [{ ...grey, reflectance: 2 }], 'The grey card reflectance is at least 3 %.'],
+    ['a grey card of 120 %', [{ ...grey, reflectance: 120 }], 'The grey card reflectance is at most 95 %.'],
+    ['a grey card reflectance as text', [{ ...grey, reflectance: '18' }], 'The grey card reflectance is a number (percent).'],
   ])('%s', (_label, regions, message) => {
     const result = regionsSchema.safeParse(regions);
     expect(result.success ? null : result.error.issues[0].message).toBe(message);
