@@ -59,3 +59,25 @@ describe('CIEDE2000 against Sharma, Wu & Dalal (2005) Table 1', () => {
     expect(difference).toBeCloseTo(expected, 4);
   });
 });
+
+describe('CIEDE2000 with lightness weighted down (kL = 2)', () => {
+  // Source: the formula (Sharma, Wu & Dalal 2005, eq. 16): ΔE00 = √((ΔL'/kL·SL)² + (ΔC'/kC·SC)² + (ΔH'/kH·SH)² + R_T…);
+  // with a and b equal only the lightness term is left, so kL = 2 halves it exactly.
+  it.each([
+    [
+      { l: 50, a: 10, b: -20 },
+      { l: 60, a: 10, b: -20 },
+    ],
+    [
+      { l: 30, a: 40, b: 30 },
+      { l: 22, a: 40, b: 30 },
+    ],
+  ])('halves a pure lightness difference', (first, second) => {
+    expect(deltaE2000(first, second, 2)).toBeCloseTo(deltaE2000(first, second) / 2, 10);
+  });
+
+  // Source: Sharma, Wu & Dalal (2005) Table 1, pair 7 (ΔL = 0): 2.3669 — with no lightness difference kL changes nothing.
+  it('leaves a difference with no lightness part as it was', () => {
+    expect(deltaE2000({ l: 50, a: 0, b: 0 }, { l: 50, a: -1, b: 2 }, 2)).toBeCloseTo(2.3669, 4);
+  });
+});
