@@ -59,7 +59,7 @@ export async function libraryVersion(slug: string, viewer: Viewer): Promise<Libr
   return { audience, version: row.version };
 }
 
-interface SwatchRow {
+export interface SwatchRow {
   couponId: number;
   photoId: number;
   layerId: number | null;
@@ -75,15 +75,17 @@ interface SwatchRow {
 }
 
 /**
- * One observation per coupon: per layer and photo the region's mean swatch (or, without one, the
- * swatch with the largest share), averaged over the coupon's photos and layers of the alloy.
+ * One observation per coupon: per layer and photo the region's dominant film cluster (the
+ * extracted swatch with the largest share — never the region's mean, a blend of film, shadow and
+ * scale that the metal never showed; the mean only when a region has nothing else), averaged over
+ * the coupon's photos and layers of the alloy.
  */
 export function observationsFromSwatches(rows: readonly SwatchRow[]): CouponObservation[] {
   const chosen = new Map<string, SwatchRow>();
   for (const row of rows) {
     const key = `${row.photoId}:${row.layerId}`;
     const current = chosen.get(key);
-    const better = !current || (row.isMean && !current.isMean) || (row.isMean === current.isMean && row.share > current.share);
+    const better = !current || (!row.isMean && current.isMean) || (row.isMean === current.isMean && row.share > current.share);
     if (better) chosen.set(key, row);
   }
   const byCoupon = new Map<number, SwatchRow[]>();
