@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useController, useWatch } from 'react-hook-form';
 import type { AlloyOptionGroup } from '~/lib/tint/alloy-options';
-import type { Prediction } from '~/lib/tint/predict';
+import type { PredictAnswer } from '~/lib/tint/responses';
 import { callApi } from '~/components/api-client';
 import { useRequestForm } from '~/components/request-form';
 import { FieldError } from '~/components/ui/FieldError';
@@ -32,7 +32,7 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
   );
   const [alloy, process] = useWatch({ control, name: ['alloy', 'process'] });
   const processField = useController({ control, name: 'process' }).field;
-  const [result, setResult] = useState<{ prediction: Prediction; planned: string } | null>(null);
+  const [result, setResult] = useState<{ prediction: PredictAnswer; planned: string } | null>(null);
 
   const chosen = optionOf(alloy);
   const canHeat = chosen?.heat ?? true;
@@ -41,7 +41,7 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
 
   const predict = handleSubmit(async (request) => {
     const typed = getValues();
-    const answer = await callApi<Prediction>('/api/tint/predict', { method: 'POST', body: request });
+    const answer = await callApi<PredictAnswer>('/api/tint/predict', { method: 'POST', body: request });
     if (!answer.ok) return showRefusal(setError, answer, heatFieldOf);
     const alloyName = optionOf(typed.alloy)?.name ?? typed.alloy;
     const planned =
@@ -114,6 +114,7 @@ export default function HeatPlanner({ groups, defaultAlloy, signedIn }: Props) {
             min={0}
           />
           <SelectField control={control} name="atmosphere" id="planner-atmosphere" label="Atmosphere" options={atmosphereChoices} />
+          <p className="field-hint -mt-2">The reference data are heats in air; a heat under argon rests on the library's argon coupons.</p>
         </>
       ) : (
         <NumberField control={control} name="volts" id="planner-volts" label="Cell voltage" unit={<span className="text-sm text-ash-600">V</span>} min={0} />

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useController, useWatch } from 'react-hook-form';
 import type { AlloyOptionGroup } from '~/lib/tint/alloy-options';
-import type { PairSuggestion } from '~/lib/tint/plan-pair';
+import type { PairAnswer } from '~/lib/tint/responses';
 import { callApi } from '~/components/api-client';
 import { useRequestForm } from '~/components/request-form';
 import { RangeField } from '~/components/ui/RangeField';
@@ -20,10 +20,11 @@ interface Props {
   signedIn: boolean;
 }
 
-interface PairAnswer {
-  suggestions: PairSuggestion[];
-  bases: { alloy: string; basis: 'library' | 'reference'; couponCount: number }[];
-}
+const atmosphereChoices = [
+  { value: 'air', label: 'Air' },
+  { value: 'argon', label: 'Argon (purged can)' },
+  { value: 'other', label: 'Other' },
+];
 
 /** Below this ΔE00 between the layers the best "contrast" is no contrast at all. */
 const NO_CONTRAST = 1;
@@ -34,11 +35,12 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
   const names = new Map(groups.flatMap((group) => group.alloys.map((alloy) => [alloy.slug, alloy.name] as const)));
   const choices = alloyChoices(groups);
   const { control, handleSubmit, getValues, setValue, setError, formState } = useRequestForm(
-    { alloys: defaultAlloys, goal: 'contrast', targets: ['#c9a23a', '#2f5fa8'], unit: 'C', temperature: ['', ''], hold: ['', ''] },
+    { alloys: defaultAlloys, goal: 'contrast', targets: ['#c9a23a', '#2f5fa8'], unit: 'C', temperature: ['', ''], hold: ['', ''], atmosphere: 'air', widen: false },
     pairResolver,
   );
   const goal = useWatch({ control, name: 'goal' });
   const goalField = useController({ control, name: 'goal' }).field;
+  const widenField = useController({ control, name: 'widen' }).field;
   const [answer, setAnswer] = useState<{ result: PairAnswer; goal: Goal } | null>(null);
 
   const suggest = handleSubmit(async (request) => {
@@ -71,7 +73,17 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
           />
         ))
       )}
-      {answer.result.suggestions.length === 0 ? (
+      {answer.result.search.temperatureC && (
+        <p className="text-sm text-ash-600" data-testid="pair-search">
+          Searched {bothUnits(answer.result.search.temperatureC.min)} to {bothUnits(answer.result.search.temperatureC.max)}
+          {answer.result.search.widened ? ', beyond what both alloys’ data cover where marked.' : ', inside what both alloys’ data cover.'}
+        </p>
+      )}
+      {answer.result.note ? (
+        <p className="alert" data-testid="pair-note">
+          {answer.result.note}
+        </p>
+      ) : answer.result.suggestions.length === 0 ? (
         <p>No heat in these ranges gives a usable pair. Widen the ranges.</p>
       ) : alike(answer) ? (
         <p className="alert">
@@ -98,6 +110,22 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
                   />
                 ))}
               </div>
+              {suggestion.outsideCalibrated && (
+                <p className="alert alert-caution text-sm" data-testid="extrapolated">
+                  Outside the temperatures the data cover: an extrapolation.
+                </p>
+              )}
+              <details className="text-sm">
+                <summary>Warnings for this heat ({suggestion.warnings.length})</summary>
+                <ul className="mt-2 grid gap-2">
+                  {suggestion.warnings.map((warning) => (
+                    <li key={`${warning.code}-${warning.message}`} className="alert alert-caution" data-warning={warning.code}>
+                      <p>{warning.message}</p>
+                      <p className="mt-1 text-xs">Source: {warning.source}</p>
+                    </li>
+                  ))}
+                </ul>
+              </details>
             </li>
           ))}
         </ol>
@@ -159,6 +187,11 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
         unit={<span className="w-[5.5rem] shrink-0 text-sm text-ash-600">min</span>}
       />
       <p className="field-hint -mt-2">Leave the ranges blank for the temperatures both alloys' data cover and holds of 1–120 min.</p>
+      <SelectField control={control} name="atmosphere" id="pair-atmosphere" label="Atmosphere" options={atmosphereChoices} />
+      <label className="inline-flex min-h-11 items-center gap-2">
+        <input type="checkbox" name="pair-widen" checked={widenField.value ?? false} onChange={(event) => widenField.onChange(event.target.checked)} />
+        Search beyond the temperatures both alloys' data cover (extrapolated heats are marked)
+      </label>
     </PlannerForm>
   );
 }

@@ -1,15 +1,75 @@
 import type { Prediction } from '~/lib/tint/predict';
+import type { NoPrediction, PredictAnswer } from '~/lib/tint/responses';
+import type { HeatWarning } from '~/lib/tint/warnings';
 import { BasisNote } from './BasisNote';
 import { ColourChip } from './ColourChip';
+import { bothUnits } from './temperature';
 
 interface Props {
-  prediction: Prediction;
+  prediction: PredictAnswer;
   planned: string;
   signedIn: boolean;
 }
 
-/** The predicted band of a planned heat: its ends and middle, the colours across it, the basis and the warnings. */
+function Warnings({ warnings }: { warnings: HeatWarning[] }) {
+  if (warnings.length === 0) return null;
+  return (
+    <div className="grid gap-2" data-testid="warnings">
+      <h3 className="text-base">Warnings for this heat</h3>
+      <ul className="grid gap-2">
+        {warnings.map((warning) => (
+          <li key={`${warning.code}-${warning.message}`} className="alert alert-caution" data-warning={warning.code}>
+            <p>{warning.message}</p>
+            <p className="mt-1 text-xs">Source: {warning.source}</p>
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** A heat with no honest prediction: why, what the library has (argon coupons) and the warnings. */
+function NoPredictionResult({ answer, planned }: { answer: NoPrediction; planned: string }) {
+  const coupons = answer.library.argonCoupons;
+  return (
+    <section className="card grid gap-4" aria-labelledby="prediction-heading" data-testid="prediction" data-outcome="none">
+      <div>
+        <p className="text-sm text-ash-600">{planned}</p>
+        <h2 id="prediction-heading" className="text-xl">
+          No prediction for this heat
+        </h2>
+      </div>
+      <p data-testid="no-prediction-reason" data-reason={answer.reason}>
+        {answer.message}
+      </p>
+      {coupons.length > 0 && (
+        <div className="grid gap-2">
+          <h3 className="text-base">What the library has under argon</h3>
+          <ul className="flex flex-wrap gap-2">
+            {coupons.map((coupon, i) => (
+              <li key={i}>
+                <ColourChip
+                  hex={coupon.hex ?? '#c8c8c8'}
+                  label={`${bothUnits(coupon.temperatureC)}, ${Number(coupon.holdMinutes.toFixed(1))} min`}
+                  detail={`≈ ${coupon.thicknessNm} nm (air: ≈ ${coupon.airNm} nm)`}
+                />
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+      <Warnings warnings={answer.warnings} />
+    </section>
+  );
+}
+
+/** The predicted band of a planned heat (its ends and middle, the colours across it, the basis and the warnings), or why there is none. */
 export function PredictionResult({ prediction, planned, signedIn }: Props) {
+  if (prediction.outcome === 'none') return <NoPredictionResult answer={prediction} planned={planned} />;
+  return <PredictedBand prediction={prediction} planned={planned} signedIn={signedIn} />;
+}
+
+function PredictedBand({ prediction, planned, signedIn }: { prediction: Prediction; planned: string; signedIn: boolean }) {
   const { band, colour, thicknessNm, warnings } = prediction;
   const first = band[0];
   const last = band[band.length - 1];
@@ -52,21 +112,17 @@ export function PredictionResult({ prediction, planned, signedIn }: Props) {
         ))}
       </ul>
 
-      <BasisNote basis={prediction.basis} couponCount={prediction.couponCount} signedIn={signedIn} />
-
-      {warnings.length > 0 && (
-        <div className="grid gap-2" data-testid="warnings">
-          <h3 className="text-base">Warnings for this heat</h3>
-          <ul className="grid gap-2">
-            {warnings.map((warning) => (
-              <li key={warning.code} className="alert alert-caution" data-warning={warning.code}>
-                <p>{warning.message}</p>
-                <p className="mt-1 text-xs">Source: {warning.source}</p>
-              </li>
-            ))}
-          </ul>
-        </div>
+      {prediction.argon ? (
+        <p className="text-sm" data-basis="argon">
+          Under argon: from {prediction.argon.couponCount} argon coupon{prediction.argon.couponCount === 1 ? '' : 's'} in the library, whose films are{' '}
+          {prediction.argon.factor < 1 ? `about ${Math.round(prediction.argon.factor * 100)} % of` : `about ${prediction.argon.factor}× `} what the same heats give
+          in air.
+        </p>
+      ) : (
+        <BasisNote basis={prediction.basis} couponCount={prediction.couponCount} signedIn={signedIn} />
       )}
+
+      <Warnings warnings={warnings} />
     </section>
   );
 }

@@ -31,6 +31,9 @@ export interface PairForm {
   /** From and to, as typed. */
   temperature: [string, string];
   hold: [string, string];
+  atmosphere?: Atmosphere;
+  /** Search beyond the temperatures both alloys' data cover. */
+  widen?: boolean;
 }
 
 const typedNumber = (value: string) => (value.trim() === '' ? null : Number(value));
@@ -83,6 +86,9 @@ export function planPairRequestOf(form: PairForm) {
     target: form.goal === 'target' ? form.targets : undefined,
     temperatureC: range(toCelsius(form.temperature[0], form.unit), toCelsius(form.temperature[1], form.unit)),
     holdMinutes: range(typedNumber(form.hold[0]), typedNumber(form.hold[1])),
+    // Sent only when not the default (air, inside the data's range).
+    atmosphere: form.atmosphere === undefined || form.atmosphere === 'air' ? undefined : form.atmosphere,
+    widen: form.widen ? true : undefined,
   };
 }
 

@@ -1,6 +1,6 @@
 import type { Lab } from '~/lib/colour';
 import { applyMatrix, invertMatrix, quadraticForm } from '~/lib/matrix';
-import { arrheniusTerm, type AnodizeGrowth, type HeatGrowthLaw } from './growth';
+import { anodizeThicknessNm, arrheniusTerm, type AnodizeGrowth, type HeatGrowthLaw } from './growth';
 import { mostLikelyCandidate, thicknessCandidates } from './inverse';
 import { findTintModel, type HeatGrowthPrior, type TintModel } from './models';
 
@@ -22,10 +22,16 @@ export interface HeatFit {
   couponCount: number;
   /** Coupons more than three robust standard deviations from the fit. */
   outlierCount: number;
+  /** The coldest and hottest coupon heats the fit rests on. */
+  temperatureSpanC?: { min: number; max: number };
 }
 
-/** Growth per volt fitted as a robust mean of ln(d/V), with its uncertainty and the coupon scatter. */
+/**
+ * Anodic growth fitted as a scale on the published line (offset + slope per volt): a robust mean of
+ * ln(d / d_law(V)), with its uncertainty and the coupon scatter. `nmPerVolt` is the scaled slope, for display.
+ */
 export interface AnodizeFit {
+  scale: number;
   nmPerVolt: number;
   lnSd: number;
   residualSd: number;
@@ -160,6 +166,7 @@ function observedThickness(model: TintModel, thicknessNm: number | undefined, la
 function fitHeat(model: TintModel, prior: HeatGrowthPrior, observations: readonly CouponObservation[]): HeatFit | null {
   const { mean, sd } = heatPriorParameters(prior);
   const points: Point[] = [];
+  const span = { min: Infinity, max: -Infinity };
   for (const observation of observations) {
     if (observation.process !== 'heat' || !(observation.holdMinutes > 0)) continue;
     const x = heatRegressors(prior.law, observation.temperatureC, observation.holdMinutes);
@@ -167,6 +174,8 @@ function fitHeat(model: TintModel, prior: HeatGrowthPrior, observations: readonl
     const observed = observedThickness(model, observation.thicknessNm, observation.lab, expectedNm);
     if (!observed) continue;
     points.push({ x, y: Math.log(observed.thicknessNm), weight: (observation.weight ?? 1) * observed.match });
+    span.min = Math.min(span.min, observation.temperatureC);
+    span.max = Math.max(span.max, observation.temperatureC);
   }
   if (points.length === 0) return null;
   const { theta, covariance, sigma, outlierCount } = robustMapFit(points, mean, sd);
@@ -182,30 +191,35 @@ function fitHeat(model: TintModel, prior: HeatGrowthPrior, observations: readonl
     residualSd: sigma,
     couponCount: points.length,
     outlierCount,
+    temperatureSpanC: span,
   };
 }
 
-/** The published range is read as an 80 % interval (±1.2816 σ) of ln(growth per volt). */
+/** The published slope range is read as an 80 % interval (±1.2816 σ) of ln(scale) on the line. */
 export function anodizePrior(growth: AnodizeGrowth): { lnMean: number; lnSd: number } {
   return {
-    lnMean: Math.log(growth.nmPerVolt.mid),
+    lnMean: 0,
     lnSd: Math.log(growth.nmPerVolt.high / growth.nmPerVolt.low) / (2 * 1.2816),
   };
 }
+
+/** The thickness the published line gives at a voltage. */
+export const anodizeLineNm = (growth: AnodizeGrowth, volts: number) => anodizeThicknessNm(growth.nmPerVolt.mid, volts, growth.offsetNm);
 
 function fitAnodize(model: TintModel, growth: AnodizeGrowth, observations: readonly CouponObservation[]): AnodizeFit | null {
   const { lnMean, lnSd } = anodizePrior(growth);
   const points: Point[] = [];
   for (const observation of observations) {
     if (observation.process !== 'anodize' || !(observation.volts > 0)) continue;
-    const expectedNm = Math.exp(lnMean) * observation.volts;
+    const expectedNm = anodizeLineNm(growth, observation.volts);
     const observed = observedThickness(model, observation.thicknessNm, observation.lab, expectedNm);
     if (!observed) continue;
-    points.push({ x: [1], y: Math.log(observed.thicknessNm / observation.volts), weight: (observation.weight ?? 1) * observed.match });
+    points.push({ x: [1], y: Math.log(observed.thicknessNm / expectedNm), weight: (observation.weight ?? 1) * observed.match });
   }
   if (points.length === 0) return null;
   const { theta, covariance, sigma } = robustMapFit(points, [lnMean], [lnSd]);
-  return { nmPerVolt: Math.exp(theta[0]), lnSd: Math.sqrt(covariance[0][0]), residualSd: sigma, couponCount: points.length };
+  const scale = Math.exp(theta[0]);
+  return { scale, nmPerVolt: scale * growth.nmPerVolt.mid, lnSd: Math.sqrt(covariance[0][0]), residualSd: sigma, couponCount: points.length };
 }
 
 /**

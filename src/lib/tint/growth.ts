@@ -47,12 +47,32 @@ export function parabolicActivationEnergy(first: { temperatureC: number; thickne
   return (GAS_CONSTANT * lnRatio) / (1 / celsiusToKelvin(first.temperatureC) - 1 / celsiusToKelvin(second.temperatureC));
 }
 
-/** Anodic oxide grows linearly with the cell voltage: d = growth-per-volt × V. */
+/**
+ * Anodic oxide grows linearly with the cell voltage, d = offset + slope × V: the offset is the film
+ * already there (air-formed oxide) and what forms before the field-driven growth settles.
+ * `nmPerVolt.mid` is the fitted slope; low and high span the electrolyte-to-electrolyte spread.
+ */
 export interface AnodizeGrowth {
+  offsetNm: number;
   nmPerVolt: { low: number; mid: number; high: number };
   source: string;
 }
 
-export function anodizeThicknessNm(nmPerVolt: number, volts: number): number {
-  return nmPerVolt * volts;
+/** Film thickness (nm) at `volts` for a growth per volt and an offset (0 for a law through zero). */
+export function anodizeThicknessNm(nmPerVolt: number, volts: number, offsetNm = 0): number {
+  return offsetNm + nmPerVolt * volts;
+}
+
+/** Ordinary least-squares line through (volts, nm) points: the offset and slope of anodic growth. */
+export function fitAnodizeLine(points: readonly { volts: number; thicknessNm: number }[]): { offsetNm: number; nmPerVolt: number; residualSdNm: number } {
+  const n = points.length;
+  if (n < 2) throw new Error('A line needs two points at least.');
+  const meanV = points.reduce((sum, point) => sum + point.volts, 0) / n;
+  const meanD = points.reduce((sum, point) => sum + point.thicknessNm, 0) / n;
+  const sxx = points.reduce((sum, point) => sum + (point.volts - meanV) ** 2, 0);
+  const sxy = points.reduce((sum, point) => sum + (point.volts - meanV) * (point.thicknessNm - meanD), 0);
+  const nmPerVolt = sxy / sxx;
+  const offsetNm = meanD - nmPerVolt * meanV;
+  const squares = points.reduce((sum, point) => sum + (point.thicknessNm - offsetNm - nmPerVolt * point.volts) ** 2, 0);
+  return { offsetNm, nmPerVolt, residualSdNm: n > 2 ? Math.sqrt(squares / (n - 2)) : 0 };
 }

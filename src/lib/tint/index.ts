@@ -11,8 +11,9 @@ export { heatThicknessNm, anodizeThicknessNm, type HeatGrowthLaw } from './growt
 export { fahrenheitToCelsius, celsiusToFahrenheit } from '~/lib/units';
 export { thicknessCandidates, type ThicknessCandidate } from './inverse';
 export { fitGrowth, type CouponObservation, type GrowthFit } from './fit';
-export { predictTint, ModelUnavailableError, type PlannedProcess, type Prediction } from './predict';
-export { planPair, type PairSuggestion } from './plan-pair';
+export { predictTint, ModelUnavailableError, NoPredictionError, MIN_LIBRARY_COUPONS, type PlannedProcess, type Prediction } from './predict';
+export { fitArgonFactor, atmosphereBasis, MIN_ARGON_COUPONS, type ArgonFactorFit, type ArgonCoupon } from './atmosphere';
+export { planPair, PairRangeError, type PairSuggestion } from './plan-pair';
 export { heatWarnings, anodizeWarnings, type HeatWarning } from './warnings';
 export * from './requests';
-export { ladderResponse, estimateResponse, planPairResponse, heatBasis } from './responses';
+export { ladderResponse, estimateResponse, planPairResponse, predictResponse, heatBasis, type PredictAnswer, type PairAnswer, type NoPrediction } from './responses';

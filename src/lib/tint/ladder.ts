@@ -3,7 +3,7 @@ import { colourFromXyz, reflectanceToXyz, weightingTable } from './colorimetry';
 import { filmStack, type FilmSystemId } from './film-systems';
 import type { Illuminant } from './illuminants';
 import { reflectanceSpectrum, weightedReflectanceSeries } from './thin-film';
-import { interferenceOrders, tintName, type TintName } from './tint-names';
+import { interferenceOrders, tintName, withoutBlips, type TintName } from './tint-names';
 
 /** The thickest film the model describes; colours have washed out to grey well before this. */
 export const MAX_THICKNESS_NM = 1000;
@@ -48,6 +48,8 @@ export interface ReferenceLadder {
 }
 
 export const REFERENCE_STEP_NM = 0.5;
+/** A name must hold for 2 nm (4 steps) between two runs of another name, or it is a blip. */
+const MIN_NAME_RUN_STEPS = 4;
 const referenceLadders = new Map<FilmSystemId, ReferenceLadder>();
 
 export function referenceLadder(system: FilmSystemId): ReferenceLadder {
@@ -56,7 +58,10 @@ export function referenceLadder(system: FilmSystemId): ReferenceLadder {
     const count = Math.round(MAX_THICKNESS_NM / REFERENCE_STEP_NM) + 1;
     const colours = ladderColours(system, 0, REFERENCE_STEP_NM, count, 'D65');
     const orders = interferenceOrders(colours.map((colour) => colour.oklab));
-    const names = colours.map((colour, i) => tintName(colour.oklab, orders[i]));
+    const names = withoutBlips(
+      colours.map((colour, i) => tintName(colour.oklab, orders[i])),
+      MIN_NAME_RUN_STEPS,
+    );
     ladder = { stepNm: REFERENCE_STEP_NM, colours, names };
     referenceLadders.set(system, ladder);
   }
@@ -72,6 +77,19 @@ function referenceIndex(ladder: ReferenceLadder, thicknessNm: number): number {
 export function tintNameAt(system: FilmSystemId, thicknessNm: number): TintName {
   const ladder = referenceLadder(system);
   return ladder.names[referenceIndex(ladder, thicknessNm)];
+}
+
+/**
+ * Where the temper colours of a system end: the end of the grey that follows its first blues (the
+ * handbooks' last temper colour on steel is light grey, Great Soviet Encyclopedia, "Temper color").
+ * Thicker steel films are past the temper range: scale, not a colour the tables name.
+ */
+export function temperRangeEndNm(system: FilmSystemId): number {
+  const ladder = referenceLadder(system);
+  let i = ladder.names.indexOf('second-order grey');
+  if (i < 0) return MAX_THICKNESS_NM;
+  while (i < ladder.names.length && ladder.names[i] === 'second-order grey') i += 1;
+  return i * ladder.stepNm;
 }
 
 /** The D65 colour of a thickness from the reference ladder (nearest 0.5 nm): fast, for searches. */

@@ -56,5 +56,9 @@ export const planPairRequestSchema = z.object({
   target: z.optional(z.tuple([hexSchema, hexSchema], { error: 'must be two colours' })),
   temperatureC: z.optional(rangeSchema(temperatureSchema)),
   holdMinutes: z.optional(rangeSchema(holdSchema)),
+  /** Air unless given. */
+  atmosphere: z.optional(z.enum(atmospheres)),
+  /** Search beyond the temperatures both alloys' data cover; off unless asked for. */
+  widen: z.optional(z.boolean({ error: 'must be true or false' })),
 });
 export type PlanPairRequest = z.infer<typeof planPairRequestSchema>;

@@ -4,9 +4,11 @@ import type { GrowthFit } from './fit';
 import { thicknessCandidates } from './inverse';
 import { buildLadder } from './ladder';
 import type { TintModel } from './models';
-import { planPair, type PairSuggestion } from './plan-pair';
-import { MIN_LIBRARY_COUPONS, roundLab } from './predict';
+import type { ArgonFactorFit } from './atmosphere';
+import { PairRangeError, planPair, searchRange, type PairSuggestion, type Range } from './plan-pair';
+import { MIN_LIBRARY_COUPONS, NoPredictionError, predictTint, roundLab, type NoPredictionReason, type PlannedProcess, type Prediction } from './predict';
 import { requestLab, type EstimateRequest, type LadderRequest, type PlanPairRequest } from './requests';
+import type { Atmosphere, HeatWarning } from './warnings';
 
 export function ladderResponse(model: TintModel, request: LadderRequest) {
   const steps = buildLadder(model.optics!, request, request.illuminant);
@@ -38,19 +40,74 @@ export function heatBasis(alloy: string, fit: GrowthFit | null | undefined) {
   return couponCount >= MIN_LIBRARY_COUPONS ? { alloy, basis: 'library' as const, couponCount } : { alloy, basis: 'reference' as const, couponCount: 0 };
 }
 
+/** A planned heat with no honest prediction: why, the heat's warnings and, under argon, what the library has. */
+export interface NoPrediction {
+  outcome: 'none';
+  alloy: string;
+  atmosphere: Atmosphere | null;
+  reason: NoPredictionReason;
+  message: string;
+  warnings: HeatWarning[];
+  library: { argonCoupons: NoPredictionError['argonCoupons'] };
+}
+
+export type PredictAnswer = (Prediction & { outcome: 'prediction' }) | NoPrediction;
+
+/** The body of POST /api/tint/predict: a prediction, or plainly why there is none. */
+export function predictResponse(model: TintModel, plan: PlannedProcess, fit?: GrowthFit | null, argon?: ArgonFactorFit | null): PredictAnswer {
+  try {
+    return { outcome: 'prediction', ...predictTint(model, plan, fit, argon) };
+  } catch (error) {
+    if (!(error instanceof NoPredictionError)) throw error;
+    return {
+      outcome: 'none',
+      alloy: model.alloy.slug,
+      atmosphere: plan.process === 'heat' ? (plan.atmosphere ?? 'air') : null,
+      reason: error.reason,
+      message: error.message,
+      warnings: error.warnings,
+      library: { argonCoupons: error.argonCoupons },
+    };
+  }
+}
+
+export interface PairAnswer {
+  suggestions: PairSuggestion[];
+  bases: ReturnType<typeof heatBasis>[];
+  atmosphere: Atmosphere;
+  /** The temperatures searched, and whether the search went beyond what both alloys' data cover. */
+  search: { temperatureC: Range | null; widened: boolean };
+  /** Why there are no suggestions, when the model cannot search (atmosphere, no shared range). */
+  note?: string;
+}
+
+export type PairResponse = { ok: true; body: PairAnswer } | { ok: false; status: 422; message: string; field: string };
+
 export function planPairResponse(
   models: readonly [TintModel, TintModel],
   request: PlanPairRequest,
   fits?: readonly [GrowthFit | null, GrowthFit | null],
-): { suggestions: PairSuggestion[]; bases: ReturnType<typeof heatBasis>[] } {
+  argon?: readonly [ArgonFactorFit | null, ArgonFactorFit | null],
+): PairResponse {
   const target = request.target ? ([hexToLab(request.target[0])!, hexToLab(request.target[1])!] as const) : undefined;
-  return {
-    suggestions: planPair(models, {
-      target,
-      temperatureC: request.temperatureC,
-      holdMinutes: request.holdMinutes,
-      fits,
-    }),
-    bases: models.map((model, i) => heatBasis(model.alloy.slug, fits?.[i])),
+  const options = {
+    target,
+    temperatureC: request.temperatureC,
+    holdMinutes: request.holdMinutes,
+    fits,
+    argon,
+    atmosphere: request.atmosphere ?? 'air',
+    widen: request.widen ?? false,
   };
+  const base = { bases: models.map((model, i) => heatBasis(model.alloy.slug, fits?.[i])), atmosphere: request.atmosphere ?? 'air' };
+  try {
+    const temperatureC = searchRange(models, options);
+    return { ok: true, body: { ...base, suggestions: planPair(models, options), search: { temperatureC, widened: Boolean(request.widen) } } };
+  } catch (error) {
+    if (error instanceof PairRangeError) return { ok: false, status: 422, message: `temperatureC: ${error.message}`, field: 'temperatureC' };
+    if (error instanceof NoPredictionError) {
+      return { ok: true, body: { ...base, suggestions: [], search: { temperatureC: null, widened: Boolean(request.widen) }, note: error.message } };
+    }
+    throw error;
+  }
 }

@@ -9,31 +9,18 @@ import { oklabToOklch, type Lab } from '~/lib/colour';
  * after it are different films). The order is counted along a system's ladder from zero
  * thickness, so a name always belongs to a thickness on a particular alloy, never to a colour alone.
  */
-export const tintNames = [
-  'silver',
-  'pale straw',
-  'straw',
-  'gold',
-  'bronze',
-  'brown',
-  'purple',
-  'deep blue',
-  'blue',
-  'light blue',
-  'grey',
-  'pale gold',
-  'second-order gold',
-  'rose',
-  'violet',
-  'second-order blue',
-  'teal',
-  'green',
-  'third-order gold',
-  'third-order blue',
-  'higher-order gold',
-  'higher-order blue',
-] as const;
-export type TintName = (typeof tintNames)[number];
+/** The orders past the first a repeating name carries. */
+const orders = ['second-order', 'third-order', 'higher-order'] as const;
+type Order = (typeof orders)[number];
+/** Colours that come back in every order after the first; each carries its order in its name. */
+const repeating = ['gold', 'blue', 'rose', 'violet', 'teal', 'green', 'grey'] as const;
+type Repeating = (typeof repeating)[number];
+
+const firstOrder = ['silver', 'pale straw', 'straw', 'gold', 'bronze', 'brown', 'purple', 'deep blue', 'blue', 'light blue', 'grey', 'pale gold'] as const;
+
+export type TintName = (typeof firstOrder)[number] | `${Order} ${Repeating}`;
+
+export const tintNames: readonly TintName[] = [...firstOrder, ...orders.flatMap((order) => repeating.map((name) => `${order} ${name}` as const))];
 
 /** Coarse hue families, used to count interference orders (the blues end each order). */
 export type HueFamily = 'neutral' | 'yellow' | 'orange' | 'red' | 'violet' | 'blue' | 'teal' | 'green';
@@ -59,7 +46,7 @@ export function hueFamily(oklab: Lab): HueFamily {
 /** Chroma that separates straw from gold in the first order (a dark yellow is gold too). */
 const GOLD_CHROMA = 0.09;
 
-const ordinal = (order: number) => (order === 2 ? 'second-order' : order === 3 ? 'third-order' : 'higher-order');
+const ordinal = (order: number): Order => (order === 2 ? 'second-order' : order === 3 ? 'third-order' : 'higher-order');
 
 /**
  * The name of a colour of the given interference order (1 = before the film's first blues end).
@@ -69,7 +56,7 @@ const ordinal = (order: number) => (order === 2 ? 'second-order' : order === 3 ?
  */
 export function tintName(oklab: Lab, order: number): TintName {
   const { l, c, h } = oklabToOklch(oklab);
-  if (c < NEUTRAL_CHROMA) return order <= 1 ? 'silver' : 'grey';
+  if (c < NEUTRAL_CHROMA) return order <= 1 ? 'silver' : `${ordinal(order)} grey`;
   if (order <= 1) {
     if (h >= 70 && h < 125) return c < PALE_CHROMA ? 'pale straw' : c < GOLD_CHROMA && l >= 0.5 ? 'straw' : 'gold';
     if (h >= 20 && h < 70) return l >= 0.45 ? 'bronze' : 'brown';
@@ -77,12 +64,36 @@ export function tintName(oklab: Lab, order: number): TintName {
     if (h >= 185 && h < 285) return l < 0.4 ? 'deep blue' : l >= 0.65 ? 'light blue' : 'blue';
     return 'grey';
   }
-  if (h >= 55 && h < 125) return c < PALE_CHROMA ? 'pale gold' : (`${ordinal(order)} gold` as TintName);
-  if (h >= 330 || h < 55) return 'rose';
-  if (h >= 285) return 'violet';
-  if (h >= 215) return `${ordinal(order)} blue` as TintName;
-  if (c < PALE_CHROMA) return 'grey';
-  return h >= 185 ? 'teal' : 'green';
+  const named = (name: Repeating): TintName => `${ordinal(order)} ${name}`;
+  if (h >= 55 && h < 125) return c < PALE_CHROMA ? 'pale gold' : named('gold');
+  if (h >= 330 || h < 55) return named('rose');
+  if (h >= 285) return named('violet');
+  if (h >= 215) return named('blue');
+  if (c < PALE_CHROMA) return named('grey');
+  return h >= 185 ? named('teal') : named('green');
+}
+
+/**
+ * Names along a ladder with blips removed: a run shorter than `minRun` steps inside the ladder takes
+ * the name of the run before it (or, between two runs of one name, that name). A hue limit crossed
+ * and recrossed within a nanometre or two is the model's rounding, not a colour a smith could see.
+ */
+export function withoutBlips<T>(names: readonly T[], minRun: number): T[] {
+  const result = [...names];
+  for (let pass = 0; pass < result.length; pass += 1) {
+    const runs: { name: T; start: number; end: number }[] = [];
+    let start = 0;
+    for (let i = 1; i <= result.length; i += 1) {
+      if (i === result.length || result[i] !== result[start]) {
+        runs.push({ name: result[start], start, end: i });
+        start = i;
+      }
+    }
+    const r = runs.findIndex((run, index) => index > 0 && index < runs.length - 1 && run.end - run.start < minRun);
+    if (r < 0) break;
+    for (let i = runs[r].start; i < runs[r].end; i += 1) result[i] = runs[r - 1].name;
+  }
+  return result;
 }
 
 /** Families that follow the blues as a film thickens (the start of the next order). */
