@@ -77,7 +77,7 @@ describe('POST /api/tint/predict', () => {
     expect(Array.isArray(body.warnings)).toBe(true);
   });
 
-  it('a forge-welding heat carries its warnings', async () => {
+  it('a forge-welding heat carries its warnings, even under argon with no prediction to give', async () => {
     const { status, body } = await post('/api/tint/predict', {
       alloy: 'ti-grade-5',
       process: 'heat',
@@ -86,9 +86,36 @@ describe('POST /api/tint/predict', () => {
       atmosphere: 'argon',
     });
     expect(status).toBe(200);
+    // A visitor has no argon coupons: the reference data cover heats in air only.
+    expect(body.outcome).toBe('none');
+    expect(body.reason).toBe('argon-too-few-coupons');
     const codes = body.warnings.map((warning: any) => warning.code);
     expect(codes).toEqual(expect.arrayContaining(['forge-welding-range', 'fe-ti-eutectic', 'beta-transus', 'inert-gas']));
     for (const warning of body.warnings) expect(warning.source).toBeTruthy();
+  });
+
+  it('"other" atmospheres: no prediction, with the reason', async () => {
+    const { status, body } = await post('/api/tint/predict', { alloy: 'ti-grade-5', process: 'heat', temperatureC: 600, holdMinutes: 60, atmosphere: 'other' });
+    expect(status).toBe(200);
+    expect(body.outcome).toBe('none');
+    expect(body.reason).toBe('other-atmosphere');
+  });
+
+  it('steel past the temper range says so instead of giving the last colour', async () => {
+    // Source: Great Soviet Encyclopedia, "Temper color": light grey at 330–350 °C is the last temper colour.
+    const { status, body } = await post('/api/tint/predict', { alloy: 'steel-1095', process: 'heat', temperatureC: 450, holdMinutes: 30 });
+    expect(status).toBe(200);
+    expect(body.outcome).toBe('none');
+    expect(body.reason).toBe('past-film-range');
+    expect(body.message).toMatch(/past the temper range/);
+  });
+
+  it('anodizing at 60 V is rose (offset + slope fitted to published thicknesses)', async () => {
+    // Source: Int. J. Biomaterials 2015, Table 1 — 60 V, pink/yellow.
+    const { status, body } = await post('/api/tint/predict', { alloy: 'ti-grade-5', process: 'anodize', volts: 60 });
+    expect(status).toBe(200);
+    expect(body.outcome).toBe('prediction');
+    expect(['second-order rose', 'second-order gold']).toContain(body.colour.name);
   });
 
   it('anodizing at 20 V is blue', async () => {
@@ -105,6 +132,7 @@ describe('POST /api/tint/predict', () => {
     [{ alloy: 'ti-grade-5', process: 'heat', temperatureC: 500, holdMinutes: -5 }, 400, 'holdMinutes'],
     [{ alloy: 'ti-grade-5', process: 'bake', temperatureC: 500, holdMinutes: 10 }, 400, 'process'],
     [{ alloy: 'ti-grade-5', process: 'anodize', volts: -3 }, 400, 'volts'],
+    [{ alloy: 'ti-grade-5', process: 'heat', temperatureC: 500, holdMinutes: 10, atmosphere: 'vacuum' }, 400, 'atmosphere'],
     [{ alloy: 'steel-316', process: 'heat', temperatureC: 500, holdMinutes: 10 }, 422, 'alloy'],
     [{ alloy: 'bronze-c51000', process: 'heat', temperatureC: 300, holdMinutes: 10 }, 422, 'alloy'],
     [{ alloy: 'zirconium-702', process: 'heat', temperatureC: 500, holdMinutes: 10 }, 422, 'alloy'],
@@ -151,16 +179,44 @@ describe('POST /api/tint/estimate', () => {
 });
 
 describe('POST /api/tint/plan-pair', () => {
-  it('without a target, suggests the heats with the most contrast', async () => {
-    const { status, body } = await post('/api/tint/plan-pair', { alloys: ['ti-grade-5', 'steel-1084'], temperatureC: { min: 200, max: 340 } });
+  it('titanium and steel share no calibrated temperature: no suggestions, and it says why', async () => {
+    // Source: Int. J. Biomaterials 2015 (titanium anchors 500–600 °C) and the temper-colour tables
+    // (Colvin & Juthe 1922, Great Soviet Encyclopedia: up to 350 °C) do not overlap.
+    const { status, body } = await post('/api/tint/plan-pair', { alloys: ['ti-grade-5', 'steel-1084'] });
     expect(status).toBe(200);
+    expect(body.suggestions).toEqual([]);
+    expect(body.note).toMatch(/wider search/);
+  });
+
+  it('a range outside the calibrated temperatures is refused unless a wider search is asked for', async () => {
+    const refused = await post('/api/tint/plan-pair', { alloys: ['ti-grade-5', 'steel-1084'], temperatureC: { min: 200, max: 340 } });
+    expect(refused.status).toBe(422);
+    expect(refused.body.field).toBe('temperatureC');
+  });
+
+  it('a wider search suggests the heats with the most contrast, each marked and warned', async () => {
+    const { status, body } = await post('/api/tint/plan-pair', { alloys: ['ti-grade-5', 'steel-1084'], temperatureC: { min: 200, max: 340 }, widen: true });
+    expect(status).toBe(200);
+    expect(body.search.widened).toBe(true);
     expect(body.suggestions.length).toBeGreaterThan(0);
-    const [best] = body.suggestions;
-    expect(best.temperatureC).toBeGreaterThanOrEqual(200);
-    expect(best.temperatureC).toBeLessThanOrEqual(340);
-    expect(best.layers.map((layer: any) => layer.alloy)).toEqual(['ti-grade-5', 'steel-1084']);
-    for (const layer of best.layers) expect(layer.hex).toMatch(HEX);
-    expect(typeof best.score).toBe('number');
+    for (const suggestion of body.suggestions) {
+      expect(suggestion.temperatureC).toBeGreaterThanOrEqual(200);
+      expect(suggestion.temperatureC).toBeLessThanOrEqual(340);
+      expect(suggestion.layers.map((layer: any) => layer.alloy)).toEqual(['ti-grade-5', 'steel-1084']);
+      for (const layer of suggestion.layers) expect(layer.hex).toMatch(HEX);
+      // Below titanium's published anchors (500 and 600 °C): extrapolated, and it says so.
+      expect(suggestion.outsideCalibrated).toBe(true);
+      const codes = suggestion.warnings.map((warning: any) => warning.code);
+      // Common practice (warnings.ts): colouring a hardened blade tempers it; hot work needs protection.
+      expect(codes).toEqual(expect.arrayContaining(['outside-reference-range', 'tempers-hardened-steel', 'hot-work']));
+    }
+  });
+
+  it('under argon without argon coupons, no suggestions and the reason', async () => {
+    const { status, body } = await post('/api/tint/plan-pair', { alloys: ['ti-grade-2', 'ti-grade-5'], atmosphere: 'argon' });
+    expect(status).toBe(200);
+    expect(body.suggestions).toEqual([]);
+    expect(body.note).toMatch(/air only/);
   });
 
   it('with a target, scores by ΔE00 to the wanted pair', async () => {
@@ -180,6 +236,8 @@ describe('POST /api/tint/plan-pair', () => {
     [{ alloys: ['ti-grade-5', 'steel-1084'], target: ['#2c7ebd', 'gold'] }, 400, 'target.1'],
     [{ alloys: ['ti-grade-5', 'steel-1084'], temperatureC: { min: 100, max: 2000 } }, 400, 'temperatureC.max'],
     [{ alloys: ['ti-grade-5', 'steel-1084'], holdMinutes: { min: -10, max: 30 } }, 400, 'holdMinutes.min'],
+    [{ alloys: ['ti-grade-5', 'ti-grade-2'], widen: 'yes' }, 400, 'widen'],
+    [{ alloys: ['ti-grade-5', 'ti-grade-2'], atmosphere: 'vacuum' }, 400, 'atmosphere'],
     [{ alloys: ['steel-304', 'ti-grade-5'] }, 422, 'alloys.0'],
     [{ alloys: ['ti-grade-5', 'zirconium-702'] }, 422, 'alloys.1'],
   ])('%j → %i naming %s', async (request, expectedStatus, field) => {

@@ -35,7 +35,16 @@ export default function PairPlanner({ groups, defaultAlloys, signedIn }: Props) 
   const names = new Map(groups.flatMap((group) => group.alloys.map((alloy) => [alloy.slug, alloy.name] as const)));
   const choices = alloyChoices(groups);
   const { control, handleSubmit, getValues, setValue, setError, formState } = useRequestForm(
-    { alloys: defaultAlloys, goal: 'contrast', targets: ['#c9a23a', '#2f5fa8'], unit: 'C', temperature: ['', ''], hold: ['', ''], atmosphere: 'air', widen: false },
+    {
+      alloys: defaultAlloys,
+      goal: 'contrast',
+      targets: ['#c9a23a', '#2f5fa8'],
+      unit: 'C',
+      temperature: ['', ''],
+      hold: ['', ''],
+      atmosphere: 'air',
+      widen: false,
+    },
     pairResolver,
   );
   const goal = useWatch({ control, name: 'goal' });

@@ -115,8 +115,8 @@ function PredictedBand({ prediction, planned, signedIn }: { prediction: Predicti
       {prediction.argon ? (
         <p className="text-sm" data-basis="argon">
           Under argon: from {prediction.argon.couponCount} argon coupon{prediction.argon.couponCount === 1 ? '' : 's'} in the library, whose films are{' '}
-          {prediction.argon.factor < 1 ? `about ${Math.round(prediction.argon.factor * 100)} % of` : `about ${prediction.argon.factor}× `} what the same heats give
-          in air.
+          {prediction.argon.factor < 1 ? `about ${Math.round(prediction.argon.factor * 100)} % of` : `about ${prediction.argon.factor}× `} what the same heats
+          give in air.
         </p>
       ) : (
         <BasisNote basis={prediction.basis} couponCount={prediction.couponCount} signedIn={signedIn} />

@@ -122,6 +122,9 @@ export function atmosphereBasis(atmosphere: Atmosphere = 'air', argon?: ArgonFac
   if (atmosphere === 'other') return { kind: 'none', reason: 'other-atmosphere', message: OTHER_ATMOSPHERE_MESSAGE, argon: null };
   if (argon && argon.couponCount >= MIN_ARGON_COUPONS) return { kind: 'argon-factor', fit: argon };
   const count = argon?.couponCount ?? 0;
-  const has = count === 0 ? 'The library has no argon coupons of this alloy yet.' : `The library has ${count} argon coupon${count === 1 ? '' : 's'} of this alloy (${MIN_ARGON_COUPONS} are needed).`;
+  const has =
+    count === 0
+      ? 'The library has no argon coupons of this alloy yet.'
+      : `The library has ${count} argon coupon${count === 1 ? '' : 's'} of this alloy (${MIN_ARGON_COUPONS} are needed).`;
   return { kind: 'none', reason: 'argon-too-few-coupons', message: `${ARGON_TOO_FEW_MESSAGE} ${has}`, argon: argon ?? null };
 }

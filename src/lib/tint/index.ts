@@ -16,4 +16,13 @@ export { fitArgonFactor, atmosphereBasis, MIN_ARGON_COUPONS, type ArgonFactorFit
 export { planPair, PairRangeError, type PairSuggestion } from './plan-pair';
 export { heatWarnings, anodizeWarnings, type HeatWarning } from './warnings';
 export * from './requests';
-export { ladderResponse, estimateResponse, planPairResponse, predictResponse, heatBasis, type PredictAnswer, type PairAnswer, type NoPrediction } from './responses';
+export {
+  ladderResponse,
+  estimateResponse,
+  planPairResponse,
+  predictResponse,
+  heatBasis,
+  type PredictAnswer,
+  type PairAnswer,
+  type NoPrediction,
+} from './responses';

@@ -84,9 +84,11 @@ const rangeText = ({ min, max }: Range) => `${min}–${max} °C`;
 export function searchRange(models: readonly [TintModel, TintModel], options: PairPlanOptions = {}): Range {
   if (options.widen) return options.temperatureC ?? widenedTemperatureRange(models[0], models[1]);
   const inside = calibratedIntersection(models, options.fits);
+  const wanted = options.temperatureC;
   if (!inside) {
-    const [a, b] = models.map((model, i) => calibratedRange(model, options.fits?.[i]));
-    const covered = models.map((model, i) => `${model.alloy.name} ${[a, b][i] ? rangeText([a, b][i]!) : 'no range'}`).join(', ');
+    const ranges = models.map((model, i) => calibratedRange(model, options.fits?.[i]));
+    const covered = models.map((model, i) => `${model.alloy.name} ${ranges[i] ? rangeText(ranges[i]) : 'no range'}`).join(', ');
+    if (wanted) throw new PairRangeError(`no temperature is inside both alloys' data (${covered}); ask for a wider search to look outside them`);
     throw new NoPredictionError(
       `The data of the two alloys share no temperature (${covered}), so no heat is inside what both cover. ` +
         'Ask for a wider search to see heats outside it; each will say which layer is extrapolated.',
@@ -94,12 +96,9 @@ export function searchRange(models: readonly [TintModel, TintModel], options: Pa
       [],
     );
   }
-  const wanted = options.temperatureC;
   if (!wanted) return inside;
   if (wanted.min < inside.min || wanted.max > inside.max) {
-    throw new PairRangeError(
-      `outside the temperatures both alloys' data cover (${rangeText(inside)}); ask for a wider search to look beyond them`,
-    );
+    throw new PairRangeError(`outside the temperatures both alloys' data cover (${rangeText(inside)}); ask for a wider search to look beyond them`);
   }
   return wanted;
 }

@@ -100,7 +100,11 @@ function anodizeBand(model: TintModel, volts: number, fit: GrowthFit | null | un
   const anodizeFit = fit?.anodize;
   if (anodizeFit && anodizeFit.couponCount >= MIN_LIBRARY_COUPONS) {
     const lnSd = Math.hypot(anodizeFit.lnSd, anodizeFit.residualSd);
-    return { band: bandFromLn(Math.log(anodizeFit.scale * anodizeLineNm(growth, volts)), lnSd), basis: 'library' as const, couponCount: anodizeFit.couponCount };
+    return {
+      band: bandFromLn(Math.log(anodizeFit.scale * anodizeLineNm(growth, volts)), lnSd),
+      basis: 'library' as const,
+      couponCount: anodizeFit.couponCount,
+    };
   }
   const { offsetNm, nmPerVolt } = growth;
   return {

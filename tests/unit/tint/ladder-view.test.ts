@@ -16,9 +16,9 @@ function inOrder(sequence: readonly string[], wanted: readonly string[]): boolea
 describe('the tint ladder page view', () => {
   it('names titanium’s bands in the order practice reports', () => {
     // Source: REFERENCES.md, colour sequence of films on titanium with thickness, typical practice
-    // [from memory]; issue 5: straw → bronze → purple → blue → light blue → gold → rose → green.
+    // [from memory]: straw → bronze → purple → blue → light blue → gold → rose → green.
     const names = view.bands.map((band) => band.name);
-    expect(inOrder(names, ['straw', 'bronze', 'purple', 'blue', 'light blue', 'second-order gold', 'rose', 'green'])).toBe(true);
+    expect(inOrder(names, ['straw', 'bronze', 'purple', 'blue', 'light blue', 'second-order gold', 'second-order rose', 'third-order green'])).toBe(true);
   });
 
   it('covers 0–600 nm with bands that meet end to end', () => {

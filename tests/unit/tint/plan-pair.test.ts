@@ -31,7 +31,9 @@ describe('pair planner guard rails', () => {
   });
 
   it('by default searches only inside both layers’ calibrated ranges, and says nothing is extrapolated', () => {
-    const suggestions = planPair([titanium, grade2], { target: [referenceColourAt('tio2-on-titanium', 40).lab, referenceColourAt('tio2-on-titanium', 40).lab] });
+    const suggestions = planPair([titanium, grade2], {
+      target: [referenceColourAt('tio2-on-titanium', 40).lab, referenceColourAt('tio2-on-titanium', 40).lab],
+    });
     expect(suggestions.length).toBeGreaterThan(0);
     for (const suggestion of suggestions) {
       // Source: the anchors (500, 600 °C) lie inside every searched heat's range, which stays within ±50 °C of them.

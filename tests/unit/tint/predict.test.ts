@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { findTintModel } from '~/lib/tint/models';
-import { ModelUnavailableError, predictTint } from '~/lib/tint/predict';
+import { ModelUnavailableError, NoPredictionError, predictTint } from '~/lib/tint/predict';
 
 const model = (slug: string) => findTintModel(slug)!;
 const heat = (slug: string, temperatureC: number, atmosphere: 'air' | 'argon' | 'other' = 'air', holdMinutes = 30) =>
@@ -77,25 +77,51 @@ describe('warnings for the planned heat', () => {
     expect(warning.message).toMatch(/at or above/);
   });
 
-  it('argon: no alpha-case warning, but an inert-gas caution', () => {
+  it('argon: no alpha-case warning, but an inert-gas caution, even with no prediction to give', () => {
     // Source: BRIEF.md safety section (argon displaces oxygen in closed spaces): common practice.
-    const argon = codes('ti-grade-5', 950, 'argon');
-    expect(argon).not.toContain('alpha-case');
-    expect(argon).toContain('inert-gas');
+    try {
+      heat('ti-grade-5', 950, 'argon');
+      expect.unreachable('argon without argon coupons has no prediction');
+    } catch (error) {
+      expect(error).toBeInstanceOf(NoPredictionError);
+      const argon = (error as NoPredictionError).warnings.map((warning) => warning.code);
+      expect(argon).not.toContain('alpha-case');
+      expect(argon).toContain('inert-gas');
+    }
   });
 
   it('outside the temperatures the reference data cover, says the band is extrapolated', () => {
+    // Source: Int. J. Biomaterials 2015 Table 1 — titanium anchors at 500 and 600 °C only; 300 °C is far below.
     expect(codes('ti-grade-5', 300)).toContain('outside-reference-range');
     expect(codes('ti-grade-5', 550)).not.toContain('outside-reference-range');
-    expect(codes('steel-1084', 420)).toContain('outside-reference-range');
+    // Source: Colvin & Juthe (1922) and the Great Soviet Encyclopedia: temper colours from about 221 °C (430 °F); 190 °C is below.
+    expect(codes('steel-1084', 190)).toContain('outside-reference-range');
+  });
+
+  it('steel past the temper range: no colour, says so', () => {
+    // Source: Great Soviet Encyclopedia, "Temper color": light grey at 330–350 °C is the last temper colour;
+    // Colvin & Juthe (1922) end at blue, 600 °F (316 °C). 420 °C for 30 min is past both.
+    try {
+      heat('steel-1084', 420);
+      expect.unreachable('a heat past the temper range has no colour');
+    } catch (error) {
+      expect(error).toBeInstanceOf(NoPredictionError);
+      expect((error as NoPredictionError).reason).toBe('past-film-range');
+      expect((error as Error).message).toMatch(/past the temper range/);
+      expect((error as NoPredictionError).warnings.map((w) => w.code)).toContain('tempers-hardened-steel');
+    }
   });
 });
 
 describe('prediction for anodizing', () => {
-  it('the band is the published growth per volt times the voltage', () => {
-    // Source: 2.2–2.8 nm/V (Ohtsuka, Masuda & Sato 1985 [from memory]; Int. J. Biomaterials 2015 Table 1), mid 2.4.
+  it('the band is offset + slope × voltage with ±10 % on the slope, from the published line', () => {
+    // Independent computation: least squares through Int. J. Biomaterials 2015, Table 1 (20 V 48 nm, 40 V 92 nm,
+    // 60 V 130 nm): slope = Σ(V−40)(d−90)/Σ(V−40)² = (840 + 800)/800 = 2.05 nm/V, offset = 90 − 2.05·40 = 8 nm.
+    // Spread: Ohtsuka, Masuda & Sato (1985, from memory) find 2.4 nm/V in acid and 2.8 nm/V in phosphate (±8 %).
     const prediction = predictTint(model('ti-grade-2'), { process: 'anodize', volts: 30 });
-    expect(prediction.thicknessNm).toEqual({ low: 66, mid: 72, high: 84 });
+    expect(prediction.thicknessNm.mid).toBeCloseTo(8 + 2.05 * 30, 1);
+    expect(prediction.thicknessNm.low).toBeCloseTo(8 + 0.9 * 2.05 * 30, 1);
+    expect(prediction.thicknessNm.high).toBeCloseTo(8 + 1.1 * 2.05 * 30, 1);
     expect(prediction.warnings.map((warning) => warning.code)).toEqual(['anodizing-bath']);
   });
 

@@ -3,11 +3,17 @@ import { heatThicknessNm } from '~/lib/tint/growth';
 import { fahrenheitToCelsius } from '~/lib/units';
 import { tintNameAt } from '~/lib/tint/ladder';
 import { findTintModel } from '~/lib/tint/models';
+import { predictTint } from '~/lib/tint/predict';
 import type { TintName } from '~/lib/tint/tint-names';
 
 const STEEL = 'iron-oxide-on-iron' as const;
 const law = findTintModel('steel-1084')!.heat!.law;
-/** The handbooks list the colour as it appears on bright steel; we read that as a 5-minute hold. */
+/**
+ * ASSUMPTION (labelled; no source gives it): the handbook tables name the colour a bright surface shows at
+ * a temperature without a hold time. We read them as a 5-minute hold, the time a smith watches the colour
+ * run before quenching (common practice). ASM Handbook Vol. 4D (2014), "Temper Colors for Steels", says
+ * colour depends on time as well as temperature, so the tables are checked as bands, not points.
+ */
 const HOLD_MINUTES = 5;
 
 /** Our tint band names that count as each handbook colour word (a word can cover neighbouring bands). */
@@ -26,8 +32,8 @@ const accepted: Record<string, TintName[]> = {
   'dark blue': ['deep blue', 'blue'],
   'pale blue': ['blue', 'light blue'],
   blue: ['deep blue', 'blue', 'light blue'],
-  'blue tinged green': ['light blue', 'grey'],
-  'light grey': ['grey'],
+  'blue tinged green': ['light blue', 'second-order grey'],
+  'light grey': ['second-order grey'],
 };
 
 const predictedName = (temperatureC: number) => tintNameAt(STEEL, heatThicknessNm(law, temperatureC, HOLD_MINUTES));
@@ -49,26 +55,10 @@ describe('temperature conversion', () => {
   ])('%i °F = %i °C', (fahrenheit, celsius) => expect(fahrenheitToCelsius(fahrenheit)).toBeCloseTo(celsius, 10));
 });
 
-// The law was calibrated on Dooley's rows; Colvin & Juthe and the Great Soviet Encyclopedia are
-// the independent checks. Tables disagree by ±15–25 °C for the same word (REFERENCES.md).
+// The law was calibrated on Dooley's (1919) rows, so Dooley is held out of the checks: Colvin & Juthe
+// and the Great Soviet Encyclopedia are the independent ones. Tables disagree by ±15–25 °C for the same
+// word (REFERENCES.md).
 describe.each([
-  {
-    table: 'Dooley, Applied Science for Metal Workers (1919)',
-    tolerance: 0,
-    // Source: Dooley 1919, temper colours, °F (as quoted in REFERENCES.md).
-    rows: [
-      ['very pale yellow', 430],
-      ['straw yellow', 460],
-      ['dark straw', 480],
-      ['brown yellow', 500],
-      ['yellow tinged purple', 520],
-      ['light purple', 530],
-      ['dark purple', 550],
-      ['dark blue', 570],
-      ['pale blue', 610],
-      ['blue tinged green', 630],
-    ].map(([word, fahrenheit]) => [word, fahrenheitToCelsius(fahrenheit as number)] as const),
-  },
   {
     table: 'Colvin & Juthe, The Working of Steel (1922), Table 26',
     tolerance: 0,
@@ -113,7 +103,15 @@ describe('steel colour order', () => {
       if (names[names.length - 1] !== name) names.push(name);
     }
     // Source: order of all three tables above (yellow/straw, brown, purple, blue, pale blue, grey).
-    expect(names).toEqual(['silver', 'pale straw', 'straw', 'gold', 'brown', 'purple', 'deep blue', 'blue', 'light blue', 'grey']);
+    expect(names).toEqual(['silver', 'pale straw', 'straw', 'gold', 'brown', 'purple', 'deep blue', 'blue', 'light blue', 'second-order grey']);
+  });
+
+  it('past the last handbook colour the model names no temper colour', () => {
+    // Source: Great Soviet Encyclopedia, "Temper color": light grey at 330–350 °C is the last; Colvin & Juthe
+    // (1922) Table 26 end at blue, 600 °F. At 400 °C the 5-minute film is past the temper range.
+    const model = findTintModel('steel-1084')!;
+    expect(() => predictTint(model, { process: 'heat', temperatureC: 400, holdMinutes: HOLD_MINUTES })).toThrow(/past the temper range/);
+    expect(() => predictTint(model, { process: 'heat', temperatureC: 300, holdMinutes: HOLD_MINUTES })).not.toThrow();
   });
 
   it('a longer hold shows the same colour at a lower temperature', () => {

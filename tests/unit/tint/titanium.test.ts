@@ -38,11 +38,11 @@ describe('titanium tint ladder (TiO2 on Ti)', () => {
         'blue',
         'light blue',
         'second-order gold',
-        'rose',
-        'violet',
+        'second-order rose',
+        'second-order violet',
         'second-order blue',
-        'teal',
-        'green',
+        'third-order teal',
+        'third-order green',
       ]),
     ).toBe(true);
   });
@@ -59,7 +59,7 @@ describe('titanium tint ladder (TiO2 on Ti)', () => {
       [23, 0.1, ['straw', 'gold']],
       [48, 0.1, ['blue', 'light blue']],
       [50, 0.1, ['blue', 'light blue']],
-      [130, 0.05, ['rose', 'second-order gold']],
+      [130, 0.05, ['second-order rose', 'second-order gold']],
     ])('%i nm (±%f) is one of %j', (thickness, tolerance, names) => {
       for (const d of [thickness * (1 - tolerance), thickness, thickness * (1 + tolerance)]) {
         expect(names).toContain(tintNameAt(TI, d));
@@ -88,34 +88,29 @@ describe('titanium tint ladder (TiO2 on Ti)', () => {
       const prediction = predictTint(ti64, { process: 'heat', temperatureC, holdMinutes: 60 });
       expect(names).toContain(prediction.colour.name);
     });
-
-    it('1 h at 500 °C and 600 °C give the published thicknesses exactly (the prior passes through them)', () => {
-      expect(predictTint(ti64, { process: 'heat', temperatureC: 500, holdMinutes: 60 }).thicknessNm.mid).toBeCloseTo(23, 1);
-      expect(predictTint(ti64, { process: 'heat', temperatureC: 600, holdMinutes: 60 }).thicknessNm.mid).toBeCloseTo(50, 1);
-    });
   });
 
-  describe('anodizing at the published growth per volt', () => {
-    // Source: growth 2.4–2.8 nm/V (Ohtsuka, Masuda & Sato 1985, citation from memory) and 2.17–2.4 nm/V
-    // from the thicknesses of Int. J. Biomaterials 2015, Table 1: the band is 2.2–2.8 nm/V.
+  describe('anodizing: offset + slope fitted to Int. J. Biomaterials 2015 thicknesses', () => {
+    // The thicknesses of Table 1 fit the line; the paper's colour words (read by eye, not used by the fit)
+    // and the colours of practice are the checks, through the optics.
     const band = (volts: number) => predictTint(ti64, { process: 'anodize', volts });
 
-    it('20 V is blue across the whole band (paper: blue)', () => {
-      expect(new Set(band(20).band.map((step) => step.name))).toEqual(new Set(['blue', 'light blue']));
+    it('20 V is blue (paper: blue)', () => {
+      // Source: Int. J. Biomaterials 2015, Table 1 — 20 V, blue.
       expect(band(20).colour.name).toBe('blue');
+      for (const step of band(20).band) expect(['purple', 'blue', 'light blue']).toContain(step.name);
     });
 
-    it('40 V spans the pale yellow-greens after the first blues (paper: green) — second order', () => {
-      const names = band(40).band.map((step) => step.name);
-      expect(names.every((name) => ['grey', 'pale gold', 'second-order gold'].includes(name))).toBe(true);
-      for (const step of band(40).band) expect(colourAt(TI, step.thicknessNm).lab.a).toBeLessThan(0);
+    it('40 V is the pale yellow-green after the first blues (paper: green)', () => {
+      // Source: Int. J. Biomaterials 2015, Table 1 — 40 V, green: a* < 0 < b* at the middle of the band.
+      const { lab } = colourAt(TI, band(40).thicknessNm.mid);
+      expect(lab.a).toBeLessThan(0);
+      expect(lab.b).toBeGreaterThan(0);
     });
 
-    it('60 V reaches rose at the low edge (paper: pink/yellow at 130 nm) and runs on to the second blues', () => {
-      // Miss, stated: the paper's 130 nm at 60 V is 2.17 nm/V; at 2.4–2.8 nm/V the mid of the band is violet/blue.
-      const names = band(60).band.map((step) => step.name);
-      expect(names[0]).toBe('rose');
-      expect(names).toContain('violet');
+    it('60 V is rose at the middle of the band (paper: pink/yellow)', () => {
+      // Source: Int. J. Biomaterials 2015, Table 1 — 60 V, pink/yellow. The old 2.4 nm/V through zero gave violet/blue here.
+      expect(['second-order rose', 'second-order gold']).toContain(band(60).colour.name);
     });
 
     it.each([
