@@ -17,10 +17,17 @@ export const filmSystems: Record<FilmSystemId, FilmSystem> = {
     id: 'tio2-on-titanium',
     film: 'anatase',
     substrate: 'titanium',
+    // The film index is a stated choice. Heat-tint films below about 450 °C are anatase, anatase + rutile
+    // above (Gemelli & Camargo, Matéria 12(3), 2007); anodic films are amorphous at low voltage and anatase
+    // above about 5 V (Ohtsuka's review, "Structure of anodic oxide films on titanium", abstract; an acetate-
+    // buffer film was "prevailing amorphous" by TEM, Fraunhofer-Publica N-74205). No dispersion of amorphous
+    // anodic TiO2 is in the sources, so the anatase index of a thin ALD film (Jolivet et al. 2023: n ≈ 2.69 at
+    // 425 nm to 2.44 at 720 nm) stands in for both: it is the published thin-film TiO2 closest in phase and density.
+    // Rutile (Devore 1951: n_o ≈ 2.81 at 450 nm to 2.53 at 750 nm) would put every colour about 5 % earlier in thickness.
     note:
-      'TiO2 film with the anatase index of a thin ALD film (Jolivet et al. 2023): heat-tint films on titanium ' +
-      'below about 450 °C are anatase and anodic films are amorphous with a similar index; titanium n, k from ' +
-      'Johnson & Christy (1974).',
+      'TiO2 film with the anatase index of a thin ALD film (Jolivet et al. 2023), standing in for both heat-tint films ' +
+      '(anatase below about 450 °C, Gemelli & Camargo 2007) and anodic films (amorphous at low voltage, anatase above ' +
+      'about 5 V; no amorphous dispersion is published in the sources); titanium n, k from Johnson & Christy (1974).',
   },
   'iron-oxide-on-iron': {
     id: 'iron-oxide-on-iron',
