@@ -78,6 +78,14 @@ describe('good requests and their defaults', () => {
     expect(ladderRequestSchema.parse({ alloy: 'ti-grade-2' })).toEqual({ alloy: 'ti-grade-2', fromNm: 0, toNm: 300, stepNm: 5, illuminant: 'D65' });
   });
 
+  it('plan-pair searches beyond the data only when asked, with a yes/no, and takes an atmosphere', () => {
+    const base = { alloys: ['ti-grade-2', 'ti-grade-5'] };
+    expect(planPairRequestSchema.parse(base).widen).toBeUndefined();
+    expect(planPairRequestSchema.parse({ ...base, widen: true, atmosphere: 'argon' })).toMatchObject({ widen: true, atmosphere: 'argon' });
+    expect(planPairRequestSchema.safeParse({ ...base, widen: 'yes' }).success).toBe(false);
+    expect(planPairRequestSchema.safeParse({ ...base, atmosphere: 'vacuum' }).success).toBe(false);
+  });
+
   it('predict defaults the atmosphere to air', () => {
     expect(predictRequestSchema.parse({ alloy: 'steel-1084', process: 'heat', temperatureC: 260, holdMinutes: 5 })).toMatchObject({ atmosphere: 'air' });
   });
