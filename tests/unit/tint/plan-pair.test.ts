@@ -44,6 +44,19 @@ describe('pair planner guard rails', () => {
     }
   });
 
+  it('library coupons widen a layer’s calibrated range to the heats they cover', () => {
+    // Synthetic coupons of both grades from 400 to 700 °C (invented data): the search may go where they are.
+    const coupons = Array.from({ length: 7 }, (_, i) => ({
+      process: 'heat' as const,
+      temperatureC: 400 + i * 50,
+      holdMinutes: 60,
+      thicknessNm: heatThicknessNm(titanium.heat!.law, 400 + i * 50, 60),
+    }));
+    const fits = [fitGrowth(titanium, coupons), fitGrowth(grade2, coupons)] as const;
+    expect(calibratedIntersection([titanium, grade2], fits)).toEqual({ min: 400, max: 700 });
+    expect(() => planPair([titanium, grade2], { fits, temperatureC: { min: 420, max: 680 } })).not.toThrow();
+  });
+
   it('a requested range outside the calibrated one is refused unless a wider search is asked for', () => {
     expect(() => planPair([titanium, grade2], { temperatureC: { min: 300, max: 500 } })).toThrow(PairRangeError);
     expect(planPair([titanium, grade2], { temperatureC: { min: 300, max: 500 }, widen: true }).length).toBeGreaterThan(0);

@@ -22,7 +22,8 @@ describe('prediction for a planned heat', () => {
   });
 
   it('a grade without its own anchors gets a wider band than Ti-6Al-4V', () => {
-    // Source: models.ts priors — ±20 % for Ti-6Al-4V (anchored, Int. J. Biomaterials 2015) and ±35 % for grade 2 (unanchored).
+    // Design rule, no published source: Ti-6Al-4V has anchors of its own (Int. J. Biomaterials 2015); grade 2 borrows
+    // them, so its band must be the less certain one.
     const width = (slug: string) => {
       const { low, high } = heat(slug, 550, 'air', 60).thicknessNm;
       return high / low;
