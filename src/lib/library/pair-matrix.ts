@@ -3,7 +3,7 @@ import type { Lab } from '~/lib/colour';
 import { alloySlugs, findAlloy, layerKeyOf, type AlloyFamily } from '~/lib/alloys';
 import type { Process, Visibility } from '~/lib/coupons';
 import { celsiusToFahrenheit } from '~/lib/units';
-import { findTintModel, ModelUnavailableError, predictTint, type GrowthFit, type TintName } from '~/lib/tint';
+import { findTintModel, ModelUnavailableError, NoPredictionError, predictTint, type GrowthFit, type TintName } from '~/lib/tint';
 
 /**
  * The heat matrix of one alloy or alloy pair: the library's measured coupons binned by
@@ -208,6 +208,8 @@ export interface PredictedCell {
   temperatureC: number;
   holdMinutes: number;
   layers: PredictedLayer[];
+  /** Layers the model gives no colour at this heat (a steel past its temper range), with the reason. */
+  beyond: { alloy: string; reason: string }[];
 }
 
 export interface PairMatrix {
@@ -263,6 +265,21 @@ export function predictLayer(slug: string, temperatureC: number, holdMinutes: nu
   };
 }
 
+/** Every layer's band at one heat; a layer the model gives no colour there is named apart. */
+function predictCell(alloys: readonly string[], temperatureC: number, holdMinutes: number, fits: Readonly<Record<string, GrowthFit | null>>) {
+  const layers: PredictedLayer[] = [];
+  const beyond: { alloy: string; reason: string }[] = [];
+  for (const alloy of alloys) {
+    try {
+      layers.push(predictLayer(alloy, temperatureC, holdMinutes, fits[alloy]));
+    } catch (error) {
+      if (!(error instanceof NoPredictionError)) throw error;
+      beyond.push({ alloy, reason: error.message });
+    }
+  }
+  return { layers, beyond };
+}
+
 /**
  * Bins the coupons (already only the viewer's, of exactly these alloys) into the matrix and
  * predicts every cell's heat. `fits` holds each alloy's library fit for the viewer (absent or
@@ -302,7 +319,7 @@ export function buildPairMatrix(
             column: column.index,
             temperatureC: row.centreC,
             holdMinutes: column.modelMinutes,
-            layers: modelled.map((alloy) => predictLayer(alloy, row.centreC, column.modelMinutes, fits[alloy])),
+            ...predictCell(modelled, row.centreC, column.modelMinutes, fits),
           })),
         );
 

@@ -241,3 +241,17 @@ describe('labels and links', () => {
     expect(new URL(cellLibraryHref(['niobium'], rows[0], holdColumns[5]), 'http://x').searchParams.get('holdMax')).toBeNull();
   });
 });
+
+describe('a steel heat past its temper range', () => {
+  it('gives that layer no model colour in the cell and says why, instead of failing the matrix', () => {
+    // Common practice (no source): a carbon steel held an hour at 600 °C is far past the blues and
+    // greys of tempering and comes out scaled, so the model must not give it a temper colour.
+    const matrix = buildPairMatrix(['steel-1084'], [coupon(600, 60, [['steel-1084', null]])]);
+    const hot = matrix.predicted.filter((cell) => cell.temperatureC >= 600);
+    expect(hot.length).toBeGreaterThan(0);
+    for (const cell of hot) {
+      expect(cell.layers).toEqual([]);
+      expect(cell.beyond).toEqual([{ alloy: 'steel-1084', reason: expect.stringMatching(/past the temper range/) }]);
+    }
+  });
+});
