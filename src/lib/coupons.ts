@@ -1,31 +1,16 @@
 import * as z from 'zod/mini';
 import { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities } from '../../db/schema/enums';
 import { alloySlugs } from './alloys';
+import { formatDuration, formatNumber, labels } from './heat-record-text';
 import { plainText, type Lines } from './text';
 
 /** The heat record of a coupon: vocabularies, labels, and the one schema forms and routes share. */
 
 export { atmospheres, coolings, processes, surfacePreparations, temperatureMethods, visibilities };
+export { formatDuration, formatNumber, labels };
 
 export type Visibility = (typeof visibilities)[number];
 export type Process = (typeof processes)[number];
-
-export const labels = {
-  visibility: { private: 'Only me', members: 'Members', public: 'Everyone' },
-  surfacePrep: { ground: 'Ground (grit)', blasted: 'Blasted', etched: 'Etched', polished: 'Polished', 'as-forged': 'As forged', other: 'Other' },
-  process: { oven: 'Oven or kiln', forge: 'Forge', torch: 'Torch', induction: 'Induction', anodize: 'Anodizing' },
-  temperatureMethod: { thermocouple: 'Thermocouple', pyrometer: 'Pyrometer', 'oven-setpoint': 'Oven setpoint', estimated: 'Estimated' },
-  atmosphere: { air: 'Air', argon: 'Argon', other: 'Other' },
-  cooling: {
-    'still-air': 'Still air',
-    'forced-air': 'Forced air',
-    'water-quench': 'Water quench',
-    'oil-quench': 'Oil quench',
-    'in-furnace': 'In the furnace',
-    'in-can': 'In the can',
-    other: 'Other',
-  },
-} as const;
 
 export const MAX_LAYERS = 8;
 export const MAX_TEMPERATURE_C = 1600;
@@ -107,13 +92,3 @@ export function describeHeat(coupon: Pick<Coupon, 'process' | 'temperatureC' | '
   if (coupon.holdSeconds !== null) parts.push(formatDuration(coupon.holdSeconds));
   return parts.join(' · ');
 }
-
-export function formatDuration(seconds: number): string {
-  if (seconds < 60) return `${seconds} s`;
-  if (seconds < 3600) return `${formatNumber(seconds / 60)} min`;
-  const hours = Math.floor(seconds / 3600);
-  const minutes = Math.round((seconds % 3600) / 60);
-  return minutes ? `${hours} h ${minutes} min` : `${hours} h`;
-}
-
-export const formatNumber = (value: number) => (Number.isInteger(value) ? String(value) : value.toFixed(1));

@@ -1,4 +1,4 @@
-import { labels } from '~/lib/coupons';
+import { labels } from '~/lib/heat-record-text';
 import { formatHold, formatTemperature, type TemperatureUnit } from '~/lib/library/format';
 import type { LibraryRow } from './library-rows';
 

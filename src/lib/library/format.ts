@@ -1,4 +1,4 @@
-import { formatDuration, formatNumber } from '~/lib/coupons';
+import { formatDuration, formatNumber } from '~/lib/heat-record-text';
 import { celsiusToFahrenheit } from '~/lib/units';
 
 export type TemperatureUnit = 'C' | 'F';
