@@ -7,6 +7,7 @@ import {
   compareHref,
   formValues,
   libraryPath,
+  pairMatrixPath,
   readView,
   unitOf,
   viewFromForm,
@@ -205,6 +206,7 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
         : page?.totalExact === false
           ? `More than ${total} coupons match`
           : `${total} ${total === 1 ? 'coupon matches' : 'coupons match'}`;
+  const matrixHref = answer.isError && !stale ? undefined : pairMatrixPath(view);
   const showCompare = !hydrated || selected.length > 0 || (page !== undefined && page.rows.length > 0 && !(answer.isError && !stale));
   const compareHint = !hydrated
     ? `Tick ${COMPARE_MIN} to ${COMPARE_MAX} coupons to compare them.`
@@ -217,10 +219,17 @@ function LibraryResultsView({ initialSearch, sorts }: Props) {
   return (
     <form method="get" action="/compare" onSubmit={compare} className="space-y-3" aria-label="Library results" data-results-for={FILTER_FORM_ID}>
       <div className="flex flex-wrap items-center justify-between gap-x-4 gap-y-2">
-        <p role="status" className="text-sm font-medium text-ash-800">
-          {status}
-          {loading && stale && <span className="sr-only"> (loading new results)</span>}
-        </p>
+        <div className="space-y-0.5">
+          <p role="status" className="text-sm font-medium text-ash-800">
+            {status}
+            {loading && stale && <span className="sr-only"> (loading new results)</span>}
+          </p>
+          {matrixHref && (
+            <p className="text-sm">
+              <a href={matrixHref}>See this pair as a heat matrix</a>
+            </p>
+          )}
+        </div>
         <nav className="flex gap-2 text-sm" aria-label="View">
           {(['table', 'grid'] as const).map((display) => (
             <a

@@ -110,3 +110,12 @@ export function compareHref(ids: readonly number[]): string {
   const params = new URLSearchParams(ids.map((id) => ['ids', String(id)]));
   return `/compare?${params}`;
 }
+
+/** The heat matrix of the alloy pair a view filters by (`pair=a+b`, or `pairA` and `pairB`); none without two different alloys. */
+export function pairMatrixPath(view: LibraryView): string | undefined {
+  const { pairA = '', pairB = '' } = formValues(view);
+  if (!pairA || !pairB || pairA === pairB) return undefined;
+  // The matrix names a pair by its sorted slugs, as layerKeyOf does.
+  const key = [pairA, pairB].sort().map(encodeURIComponent).join('+');
+  return `/library/pairs/${key}${unitOf(view) === 'F' ? '?unit=F' : ''}`;
+}

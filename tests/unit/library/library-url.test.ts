@@ -5,6 +5,7 @@ import {
   compareHref,
   formValues,
   libraryPath,
+  pairMatrixPath,
   readView,
   unitOf,
   viewFromForm,
@@ -122,5 +123,19 @@ describe('the compare link', () => {
   it('repeats ids, one per chosen coupon, in the order chosen', () => {
     expect(compareHref([12, 7])).toBe('/compare?ids=12&ids=7');
     expect(compareHref([3, 1, 4, 15])).toBe('/compare?ids=3&ids=1&ids=4&ids=15');
+  });
+});
+
+describe('the heat matrix link of a pair filter', () => {
+  // The matrix's URL names a pair by its two slugs in sorted order (/library/pairs/{a}+{b}), whichever order the filter names them.
+  it.each([
+    ['pairA=ti-grade-5&pairB=ti-grade-2', '/library/pairs/ti-grade-2+ti-grade-5'],
+    ['pair=ti-grade-5%2Bti-grade-2', '/library/pairs/ti-grade-2+ti-grade-5'],
+    ['pairA=steel-1084&pairB=steel-15n20&unit=F', '/library/pairs/steel-1084+steel-15n20?unit=F'],
+    ['pairA=ti-grade-2', undefined],
+    ['pairA=ti-grade-2&pairB=ti-grade-2', undefined],
+    ['alloy=ti-grade-2', undefined],
+  ])('%s → %s', (query, path) => {
+    expect(pairMatrixPath(readView(query, sorts))).toBe(path);
   });
 });
