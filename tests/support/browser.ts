@@ -1,6 +1,6 @@
-import { afterAll, beforeAll } from 'vitest';
-import { chromium, type BrowserContext } from 'playwright-core';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { afterAll, beforeAll, onTestFailed } from 'vitest';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 
@@ -40,4 +40,22 @@ export function useBrowser(): () => BrowserContext {
     if (!browser) throw new Error('The browser is not running yet.');
     return browser.context;
   };
+}
+
+/** Where a failed browser test leaves its screenshot (`.data/` is ignored by git). */
+export const failureShotDir = path.join(process.cwd(), '.data', 'e2e-failures');
+
+/**
+ * Keeps a full-page screenshot of `page` when the running test fails, named after the test and
+ * `label`, so a failure on a loaded machine can be looked at afterwards. Call inside the test.
+ */
+export function keepScreenshotOnFailure(page: Page, label: string): void {
+  onTestFailed(async ({ task }) => {
+    if (page.isClosed()) return;
+    mkdirSync(failureShotDir, { recursive: true });
+    const name = `${task.name}-${label}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
+    const file = path.join(failureShotDir, `${name}.png`);
+    await page.screenshot({ path: file, fullPage: true }).catch(() => undefined);
+    console.error(`Screenshot of the failed page (${page.url()}): ${file}`);
+  });
 }
