@@ -53,7 +53,7 @@ export function keepScreenshotOnFailure(page: Page, label: string): void {
   onTestFailed(async ({ task }) => {
     if (page.isClosed()) return;
     mkdirSync(failureShotDir, { recursive: true });
-    const name = `${task.name}-${label}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
+    const name = `${label}-${task.name}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
     const file = path.join(failureShotDir, `${name}.png`);
     await page.screenshot({ path: file, fullPage: true }).catch(() => undefined);
     console.error(`Screenshot of the failed page (${page.url()}): ${file}`);
