@@ -52,6 +52,16 @@ export function ResultGrid({ rows, unit, selected, onToggle }: Props) {
               <span className="flex flex-1 items-center justify-center bg-ash-100 text-xs text-ash-600">no photo yet</span>
             )}
           </div>
+          {row.swatches.length > 0 && (
+            <p className="-mt-1 font-mono text-xs text-ash-600">
+              {row.swatches.map((swatch) => (
+                <span key={swatch.position} className="mr-2 inline-block">
+                  {swatch.hex}
+                  <span className="sr-only">, layer {swatch.position + 1}</span>
+                </span>
+              ))}
+            </p>
+          )}
           <div className="flex items-start justify-between gap-2">
             <a className="text-sm font-medium leading-snug" href={couponHref(row)}>
               {row.title}
