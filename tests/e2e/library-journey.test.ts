@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
 import { differenceCiede2000, parse } from 'culori';
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import { coupons } from '../../db/schema';
 import { baseUrl } from '../support/app';
 import { keepScreenshotOnFailure, useBrowser } from '../support/browser';
@@ -55,8 +55,8 @@ function halfStepReach(hex: string): number {
 }
 
 /** Every element painted with a swatch colour (an inline background) has its hex in the text around it. */
-async function swatchChipsWithoutHex(page: Page): Promise<string[]> {
-  return page.evaluate(() => {
+async function swatchChipsWithoutHex(page: Page, scope: string): Promise<string[]> {
+  return page.evaluate((scope) => {
     const hexOf = (colour: string) => {
       const rgb = /rgba?\((\d+),\s*(\d+),\s*(\d+)/.exec(colour);
       if (rgb)
@@ -67,8 +67,11 @@ async function swatchChipsWithoutHex(page: Page): Promise<string[]> {
       return /#[0-9a-f]{6}\b/i.exec(colour)?.[0].toLowerCase() ?? null;
     };
     const missing: string[] = [];
-    for (const element of document.querySelectorAll<HTMLElement>('main [style*="background"]')) {
-      const hex = hexOf(element.style.background || element.style.backgroundColor);
+    for (const element of document.querySelectorAll<HTMLElement>(`${scope} [style*="background"]`)) {
+      const paint = element.style.background || element.style.backgroundColor;
+      // A gradient is a ladder or a scale, and a photo's region mark an outline: neither is a swatch chip.
+      if (paint.includes('gradient') || element.closest('[data-mark]')) continue;
+      const hex = hexOf(paint);
       if (!hex) continue;
       let holder: HTMLElement | null = element;
       let found = false;
@@ -77,13 +80,14 @@ async function swatchChipsWithoutHex(page: Page): Promise<string[]> {
       if (!found) missing.push(`${hex} in ${element.parentElement?.outerHTML.slice(0, 160)}`);
     }
     return missing;
-  });
+  }, scope);
 }
 
-async function expectChipsCarryHex(page: Page) {
-  const painted = await page.locator('main [style*="background"]').count();
+/** Checks the swatch chips inside `scope` (a CSS selector; the page's main content unless told). */
+async function expectChipsCarryHex(page: Page, scope = 'main') {
+  const painted = await page.locator(`${scope} [style*="background"]`).count();
   expect(painted, `swatch chips on ${page.url()}`).toBeGreaterThan(0);
-  expect(await swatchChipsWithoutHex(page), `chips without a hex on ${page.url()}`).toEqual([]);
+  expect(await swatchChipsWithoutHex(page, scope), `chips without a hex on ${page.url()}`).toEqual([]);
 }
 
 async function newPage(width: Width): Promise<Page> {
@@ -310,3 +314,24 @@ function csvRecords(text: string): string[][] {
   if (field !== '' || record.length) records.push([...record, field]);
   return records;
 }
+
+describe('swatch chips carry their hex as text', () => {
+  it('on the front page, the swatch grid, one alloy’s matrix and a demo coupon’s page', { timeout: 120_000 }, async () => {
+    await browser().clearCookies();
+    const page = await newPage(widths[1]);
+    const [newest] = await db
+      .select({ id: coupons.id })
+      .from(coupons)
+      .where(and(eq(coupons.layerKey, PAIR_KEY), eq(coupons.visibility, 'public')))
+      .orderBy(desc(coupons.id))
+      .limit(1);
+    // The front page's recent swatches (its opening ladder strip is a captioned illustration, not chips).
+    await page.goto(`${baseUrl}/`, { waitUntil: 'networkidle' });
+    await expectChipsCarryHex(page, 'section[aria-labelledby="recent-in-the-library"]');
+    for (const path of ['/library?view=grid', `/library/alloys/${PAIR[0]}`, `/coupons/${newest.id}`]) {
+      await page.goto(`${baseUrl}${path}`, { waitUntil: 'networkidle' });
+      await expectChipsCarryHex(page);
+    }
+    await page.close();
+  });
+});
