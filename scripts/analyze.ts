@@ -116,24 +116,34 @@ async function main(): Promise<number> {
     return 2;
   }
   const { ImageRejected } = await import('~/lib/server/photos/decode');
-  const { analysePhoto } = await import('~/lib/server/photos/measure');
+  const { analyseDecoded, decodeToMeasure } = await import('~/lib/server/photos/measure');
   const { files, unreadable } = await photoFiles(command.inputs);
   let failed = unreadable.length > 0;
   for (const folder of unreadable) console.error(`analyze: cannot read the folder ${folder}`);
 
-  // The next photo is read from disk while this one is measured.
-  const read = (file: string) => readFile(file).catch((error: NodeJS.ErrnoException) => error);
-  let next = files.length > 0 ? read(files[0]) : undefined;
+  // The next photo is read and decoded (in sharp's threads) while this one is measured. Each
+  // outcome is caught at once, so a bad photo waits its turn to be reported.
+  const load = (file: string) =>
+    readFile(file).then(
+      (buffer) =>
+        decodeToMeasure(buffer, command.options).then(
+          (image) => ({ image }),
+          (error: unknown) => ({ error }),
+        ),
+      (error: NodeJS.ErrnoException) => ({ unread: error }),
+    );
+  let next = files.length > 0 ? load(files[0]) : undefined;
   for (const [index, file] of files.entries()) {
-    const buffer = await next!;
-    next = index + 1 < files.length ? read(files[index + 1]) : undefined;
-    if (buffer instanceof Error) {
-      console.error(`analyze: cannot read ${file}: ${(buffer as NodeJS.ErrnoException).code ?? buffer.message}`);
+    const loaded = await next!;
+    next = index + 1 < files.length ? load(files[index + 1]) : undefined;
+    if ('unread' in loaded) {
+      console.error(`analyze: cannot read ${file}: ${loaded.unread.code ?? loaded.unread.message}`);
       failed = true;
       continue;
     }
     try {
-      const analysis = await analysePhoto(buffer, command.options);
+      if ('error' in loaded) throw loaded.error;
+      const analysis = analyseDecoded(loaded.image, command.options);
       const regions = command.alloy
         ? analysis.regions.map((region) => ({ ...region, film: filmOf(command.alloy!, region.swatches[0]?.lab, analysis.whiteBalance !== null) }))
         : analysis.regions;

@@ -1,5 +1,7 @@
 import { SRGB8_TO_LINEAR } from '~/lib/colour';
 import { PIXEL_LIMITS, type PixelImage } from './pixels';
+import type { Size } from './regions';
+import type { Region } from './schemas';
 
 /**
  * A shrink that keeps glints out of the colours. A plain resize averages every pixel of a cell,
@@ -23,25 +25,54 @@ const ENCODE = Uint8Array.from({ length: ENCODE_STEPS + 1 }, (_, i) => {
 });
 const encode = (value: number) => ENCODE[Math.round(value * ENCODE_STEPS)];
 
-/** Shrinks `image` to `width` × `height` (each at most the image's own), leaving glints and shadows out of each cell's mean. */
-export function shrinkRejectingGlare(image: PixelImage, width: number, height: number): PixelImage {
-  if (width >= image.width && height >= image.height) return image;
+/** A part of the shrunk image: `cells` (pixels of the shrunk image) and the full size of the image they are shrunk from. */
+export interface ShrinkPart {
+  cells: Region;
+  from: Size;
+}
+
+/** The pixels of the full image (`from`) that the cells of `part` are made from, so only they need decoding. */
+export function sourceOfCells(part: ShrinkPart, width: number, height: number): Region {
+  const { cells, from } = part;
+  const scaleX = from.width / width;
+  const scaleY = from.height / height;
+  const left = Math.min(from.width - 1, Math.floor(cells.x * scaleX));
+  const top = Math.min(from.height - 1, Math.floor(cells.y * scaleY));
+  const lastLeft = Math.min(from.width, Math.floor((cells.x + cells.width - 1) * scaleX));
+  const right = Math.min(from.width, Math.max(lastLeft + 1, Math.floor((cells.x + cells.width) * scaleX)));
+  const lastTop = Math.floor((cells.y + cells.height - 1) * scaleY);
+  const bottom = Math.min(from.height, Math.max(lastTop + 1, Math.floor((cells.y + cells.height) * scaleY)));
+  return { x: left, y: top, width: right - left, height: bottom - top };
+}
+
+/**
+ * Shrinks `image` to `width` × `height` (each at most the image's own), leaving glints and shadows
+ * out of each cell's mean. With `part`, `image` holds only the pixels sourceOfCells(part) names and
+ * only part.cells are made; every other pixel of the result stays 0 (black, or transparent with alpha).
+ */
+export function shrinkRejectingGlare(image: PixelImage, width: number, height: number, part?: ShrinkPart): PixelImage {
+  const full = part?.from ?? image;
+  if (!part && width >= image.width && height >= image.height) return image;
+  const cells = part?.cells ?? { x: 0, y: 0, width, height };
+  const source = part ? sourceOfCells(part, width, height) : { x: 0, y: 0 };
   const { data, channels } = image;
   const rowLength = image.width * channels;
   const out = new Uint8Array(width * height * channels);
-  const scaleX = image.width / width;
-  const scaleY = image.height / height;
+  const scaleX = full.width / width;
+  const scaleY = full.height / height;
   const maxCell = (Math.ceil(scaleX) + 1) * (Math.ceil(scaleY) + 1);
   const brightness = new Int32Array(maxCell);
   const offsets = new Int32Array(maxCell);
   const sorted = new Int32Array(maxCell);
   const { darkMax, clippedMin, nearWhiteMin } = PIXEL_LIMITS;
   const lights = SRGB8_TO_LINEAR;
-  const lefts = Int32Array.from({ length: width + 1 }, (_, ox) => Math.min(image.width, Math.floor(ox * scaleX)));
-  for (let oy = 0; oy < height; oy += 1) {
-    const top = Math.floor(oy * scaleY);
-    const bottom = Math.max(top + 1, Math.floor((oy + 1) * scaleY));
-    for (let ox = 0; ox < width; ox += 1) {
+  // Cell edges in pixels of `image` (which starts at `source` in the full image).
+  const lefts = Int32Array.from({ length: width + 1 }, (_, ox) => Math.min(full.width, Math.floor(ox * scaleX)) - source.x);
+  for (let oy = cells.y; oy < cells.y + cells.height; oy += 1) {
+    const fullTop = Math.floor(oy * scaleY);
+    const top = fullTop - source.y;
+    const bottom = Math.max(fullTop + 1, Math.floor((oy + 1) * scaleY)) - source.y;
+    for (let ox = cells.x; ox < cells.x + cells.width; ox += 1) {
       const left = lefts[ox];
       const right = Math.max(left + 1, lefts[ox + 1]);
       // First pass: each pixel's brightness (its brightest channel), the cell's range, and the

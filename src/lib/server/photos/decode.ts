@@ -1,5 +1,5 @@
 import sharp from 'sharp';
-import { shrinkRejectingGlare, type PixelImage } from '~/lib/analysis';
+import { AnalysisInputError, scaleRegion, shrinkRejectingGlare, sourceOfCells, type PixelImage, type Region, type Size } from '~/lib/analysis';
 import { kindMismatchMessage, sameImageKind, type PhotoContentType } from '~/lib/photos';
 import { decodeHeic, isHeic } from './heic-worker';
 import { carriesPosition, readExif, type PhotoExif } from './metadata';
@@ -141,7 +141,12 @@ function decodeSize(width: number, height: number): { width: number; height: num
   return { width: Math.ceil(width / reduction), height: Math.ceil(height / reduction) };
 }
 
-async function shrinkForAnalysis(opened: OpenedImage): Promise<AnalysisImage> {
+/**
+ * The shrunk copy. With `regions` (pixels of the upright full-size photo), only the cells of the
+ * copy that cover them are made, from only the decoded pixels under them: the rest of the copy
+ * stays black, so nothing else may be measured on it.
+ */
+async function shrinkForAnalysis(opened: OpenedImage, regions?: Region[]): Promise<AnalysisImage> {
   const { width, height } = opened;
   const target = analysisSize(width, height);
   if (target.width === width && target.height === height) return { width, height, pixels: await toPixels(opened.pipeline()) };
@@ -150,13 +155,37 @@ async function shrinkForAnalysis(opened: OpenedImage): Promise<AnalysisImage> {
   const decoded = decodeSize(width, height);
   const pipeline = opened.pipeline();
   if (decoded.width !== width || decoded.height !== height) pipeline.resize({ ...decoded, fit: 'fill', kernel: 'nearest' });
-  const pixels = shrinkRejectingGlare(await toPixels(pipeline), target.width, target.height);
-  return { width, height, pixels };
+  const cells = regions && cellsCovering(regions, { width, height }, target);
+  if (!cells) return { width, height, pixels: shrinkRejectingGlare(await toPixels(pipeline), target.width, target.height) };
+  const part = { cells, from: decoded };
+  const source = sourceOfCells(part, target.width, target.height);
+  pipeline.extract({ left: source.x, top: source.y, width: source.width, height: source.height });
+  return { width, height, pixels: shrinkRejectingGlare(await toPixels(pipeline), target.width, target.height, part) };
 }
 
-/** Decodes a photo for analysis only (the quick path used when a region is drawn or edited). */
-export async function decodeForAnalysis(buffer: Uint8Array): Promise<AnalysisImage> {
-  return shrinkForAnalysis(await openImage(buffer));
+/** The smallest rectangle of the copy's pixels that holds every region as scaleRegion maps it; undefined when a region lies outside the photo. */
+function cellsCovering(regions: Region[], full: Size, copy: Size): Region | undefined {
+  if (regions.length === 0) return undefined;
+  let mapped: Region[];
+  try {
+    mapped = regions.map((region) => scaleRegion(region, full, copy));
+  } catch (error) {
+    if (error instanceof AnalysisInputError) return undefined; // measured in full, to refuse the region as before
+    throw error;
+  }
+  const x = Math.min(...mapped.map((region) => region.x));
+  const y = Math.min(...mapped.map((region) => region.y));
+  const right = Math.max(...mapped.map((region) => region.x + region.width));
+  const bottom = Math.max(...mapped.map((region) => region.y + region.height));
+  return { x, y, width: right - x, height: bottom - y };
+}
+
+/**
+ * Decodes a photo for analysis only (the quick path used when a region is drawn or edited). With
+ * `regions`, only the part of the copy under them is made: measure nothing else on it.
+ */
+export async function decodeForAnalysis(buffer: Uint8Array, regions?: Region[]): Promise<AnalysisImage> {
+  return shrinkForAnalysis(await openImage(buffer), regions);
 }
 
 /** The stored analysis copy (a lossless PNG, see derived-files.ts) back as pixels, standing for the photo's full size. */

@@ -55,10 +55,18 @@ export function analyseDecoded(image: AnalysisImage, options: AnalysisOptions = 
   };
 }
 
+/**
+ * Decodes the part of a photo that `options` measures (its regions and grey card; all of it when
+ * no region is given), for analyseDecoded with the same options.
+ */
+export async function decodeToMeasure(buffer: Uint8Array, options: AnalysisOptions = {}): Promise<AnalysisImage> {
+  const { regions, grey } = AnalysisOptionsSchema.parse(options);
+  return decodeForAnalysis(buffer, regions.length > 0 ? [...regions, ...(grey ? [grey] : [])] : undefined);
+}
+
 /** Decodes and analyses a photo: what the CLI calls. */
 export async function analysePhoto(buffer: Uint8Array, options: AnalysisOptions = {}): Promise<PhotoAnalysis> {
-  AnalysisOptionsSchema.parse(options);
-  return analyseDecoded(await decodeForAnalysis(buffer), options);
+  return analyseDecoded(await decodeToMeasure(buffer, options), options);
 }
 
 /**
