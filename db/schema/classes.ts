@@ -13,6 +13,8 @@ export const classes = mysqlTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     name: varchar('name', { length: 160 }).notNull(),
+    /** When the class runs, as the instructor writes it ("Spring 2027", "Tuesday evenings"). */
+    term: varchar('term', { length: 80 }),
     description: text('description'),
     ...timestamps,
   },
@@ -52,9 +54,16 @@ export const invitations = mysqlTable(
       .references(() => users.id, { onDelete: 'cascade' }),
     expiresAt: timestamp('expires_at', { mode: 'date' }).notNull(),
     acceptedAt: timestamp('accepted_at', { mode: 'date' }),
+    acceptedBy: varchar('accepted_by', { length: 255 }).references(() => users.id, { onDelete: 'set null' }),
+    /** Set when the instructor revokes it, or sends a new link in its place. */
+    revokedAt: timestamp('revoked_at', { mode: 'date' }),
     createdAt: timestamps.createdAt,
   },
-  (table) => [uniqueIndex('invitations_token_idx').on(table.tokenHash), index('invitations_class_idx').on(table.classId)],
+  (table) => [
+    uniqueIndex('invitations_token_idx').on(table.tokenHash),
+    index('invitations_class_idx').on(table.classId),
+    index('invitations_email_idx').on(table.email),
+  ],
 );
 
 /** Coupons a member has shared with a class they belong to. */

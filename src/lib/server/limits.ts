@@ -14,4 +14,7 @@ export const limits = {
   resetPerAddress: { name: 'reset:address', max: perAddress(10), windowSeconds: minutes(60) },
   /** Wrong current passwords on the password-change form, per account. */
   passwordChangePerAccount: { name: 'password-change:account', max: 5, windowSeconds: minutes(15) },
+  /** Class invitation mails sent by one instructor, and received by one address (sends and resends alike). */
+  invitationsPerInviter: { name: 'invite:inviter', max: 200, windowSeconds: minutes(60) },
+  invitationsPerEmail: { name: 'invite:email', max: 5, windowSeconds: minutes(60) },
 } satisfies Record<string, Limit>;
