@@ -10,6 +10,7 @@ import { demoPassword, demoPeople } from './people';
 import { demoCoupons } from './coupons';
 import { seedDemoPhotos } from './photos';
 import { seriesCoupons } from './series';
+import { seedDemoClass } from './classes';
 
 const DEMO_MARKER = 'demo-seeded';
 const PHOTOS_MARKER = 'demo-photos-seeded';
@@ -56,6 +57,7 @@ async function seedDemoRecords(db: Database) {
         .$returningId();
       await tx.insert(couponLayers).values(demo.layers.map((slug, position) => ({ couponId: id, position, alloyId: alloyIdBySlug.get(slug)! })));
     }
+    await seedDemoClass(tx, idByEmail);
     await tx.insert(appSettings).values({ key: DEMO_MARKER, value: new Date().toISOString() });
   });
 }

@@ -4,6 +4,7 @@ import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { eq } from 'drizzle-orm';
 import { appSettings } from '../../db/schema';
+import { demoClass } from '../../scripts/seed/classes';
 
 /**
  * Who may call what: every route × visitor, member, another member, instructor, admin, with the
@@ -27,6 +28,8 @@ interface Ids {
   memberCoupon: Record<'private' | 'members' | 'public', number>;
   /** Photos of the demo member's coupons (the demo seed gives some coupons of each visibility photos). */
   memberPhoto: Record<'private' | 'members', number>;
+  /** The demo class: the demo instructor teaches it, the demo member is a student, member2 is not in it. */
+  demoClass: number;
 }
 
 const all = (status: number): Record<Who, number> => ({ visitor: status, member: status, member2: status, instructor: status, admin: status });
@@ -216,6 +219,88 @@ export const matrix: Row[] = [
   },
   { route: 'compare, bad ids', method: 'GET', path: '/api/compare?ids=1,x', expect: all(400) },
   { route: 'compare, one coupon', method: 'GET', path: '/api/compare?ids=1', expect: all(400) },
+
+  // classes (the demo class: member is a student, member2 an outsider; tests/integration/classes.test.ts and class-invitations.test.ts)
+  { route: 'my classes', method: 'GET', path: '/api/classes', expect: signedInOnly(200) },
+  {
+    route: 'start a class, invalid',
+    method: 'POST',
+    path: '/api/classes',
+    json: { name: '' },
+    expect: { visitor: 401, member: 403, member2: 403, instructor: 400, admin: 400 },
+  },
+  {
+    route: 'open a class',
+    method: 'GET',
+    path: (ids) => `/api/classes/${ids.demoClass}`,
+    expect: { visitor: 404, member: 200, member2: 404, instructor: 200, admin: 200 },
+  },
+  { route: 'open a class, unknown', method: 'GET', path: '/api/classes/99999999', expect: all(404) },
+  { route: 'open a class, not an id', method: 'GET', path: '/api/classes/1e2', expect: all(404) },
+  {
+    route: 'change a class, invalid',
+    method: 'PATCH',
+    path: (ids) => `/api/classes/${ids.demoClass}`,
+    json: { name: '' },
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 400, admin: 400 },
+  },
+  // The instructor's and an admin's deletes really delete.
+  {
+    route: 'delete a class',
+    method: 'DELETE',
+    path: (ids) => `/api/classes/${ids.demoClass}`,
+    expect: { visitor: 401, member: 403, member2: 404, instructor: null, admin: null },
+  },
+  {
+    route: 'list a class’s invitations',
+    method: 'GET',
+    path: (ids) => `/api/classes/${ids.demoClass}/invitations`,
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 200, admin: 200 },
+  },
+  {
+    route: 'invite to a class, invalid',
+    method: 'POST',
+    path: (ids) => `/api/classes/${ids.demoClass}/invitations`,
+    json: { emails: ['not an address'] },
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 400, admin: 400 },
+  },
+  {
+    route: 'revoke an invitation, unknown',
+    method: 'DELETE',
+    path: (ids) => `/api/classes/${ids.demoClass}/invitations/99999999`,
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 404 },
+  },
+  {
+    route: 'resend an invitation, unknown',
+    method: 'POST',
+    path: (ids) => `/api/classes/${ids.demoClass}/invitations/99999999/resend`,
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 404 },
+  },
+  {
+    route: 'remove a student, not in the class',
+    method: 'DELETE',
+    path: (ids) => `/api/classes/${ids.demoClass}/members/no-such-person`,
+    expect: { visitor: 401, member: 403, member2: 404, instructor: 404, admin: 404 },
+  },
+  // The member sharing their own coupon really shares it: tests/integration/classes.test.ts covers it.
+  {
+    route: 'share a private coupon with a class',
+    method: 'PUT',
+    path: (ids) => `/api/classes/${ids.demoClass}/coupons/${ids.memberCoupon.private}`,
+    expect: { visitor: 401, member: null, member2: 404, instructor: 404, admin: 403 },
+  },
+  {
+    route: 'share a coupon with a class, unknown coupon',
+    method: 'PUT',
+    path: (ids) => `/api/classes/${ids.demoClass}/coupons/99999999`,
+    expect: { visitor: 401, member: 404, member2: 404, instructor: 404, admin: 404 },
+  },
+  {
+    route: 'unshare a coupon, unknown coupon',
+    method: 'DELETE',
+    path: (ids) => `/api/classes/${ids.demoClass}/coupons/99999999`,
+    expect: { visitor: 401, member: 404, member2: 404, instructor: 404, admin: 404 },
+  },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -248,6 +333,8 @@ beforeAll(async () => {
     throw new Error(`The demo member has no ${visibility} coupon with a photo`);
   };
   ids.memberPhoto = { private: await photoOf('private'), members: await photoOf('members') };
+  const classes = ((await (await api('/api/classes', { jar: jars.instructor })).json()) as { classes: { id: number; name: string }[] }).classes;
+  ids.demoClass = classes.find((cls) => cls.name === demoClass.name)!.id;
 });
 
 const cases = matrix.flatMap((row) => everyone.filter((who) => row.expect[who] !== null).map((who) => ({ ...row, who, status: row.expect[who] })));
@@ -324,6 +411,14 @@ describe('no page answers 500 to a stranger', () => {
     '/compare?ids=1,2',
     '/compare?ids=1,2,3,4,5',
     '/compare?ids=%00&ids=x,,&ids=99999999999',
+    '/classes',
+    '/classes/new',
+    '/classes/abc',
+    '/classes/0',
+    '/classes/99999999',
+    '/classes/join',
+    '/classes/join?token=abc',
+    `/classes/join?token=${'q'.repeat(43)}`,
   ];
   it.each(pages.flatMap((path) => (['visitor', 'member'] as Who[]).map((who) => ({ path, who }))))('GET $path as $who', async ({ path, who }) => {
     const response = await api(path, { jar: { cookies: new Map(jars[who].cookies) } });

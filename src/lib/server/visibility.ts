@@ -13,6 +13,11 @@ import type { Visibility } from '~/lib/coupons';
  * - A signed-in person also sees members-only coupons, and their own private ones.
  * - An admin sees every coupon.
  * - Only the owner and an admin may change a coupon.
+ *
+ * Classes: a coupon its owner shares with a class is also seen by that class's students and
+ * instructor, but only on the class page and on the coupon's own page (classes/class-coupons.ts,
+ * seesThroughClass). maySee and visibleCoupons leave it out on purpose: sharing with a class never
+ * widens who sees a coupon in the library, the search, the API's lists or the fit.
  */
 
 /** The person asking; null for a visitor. */
