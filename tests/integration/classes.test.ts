@@ -1,9 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { api, type Jar } from '../support/app';
+import { api, baseUrl, newJar, type Jar } from '../support/app';
 import { confirmedAccount, demo, signedIn, type TestAccount } from '../support/auth';
 import { linkIn, waitForMail } from '../support/mail';
-import { baseUrl, newJar } from '../support/app';
 import { testDatabase } from '../support/database';
 import { classCoupons, coupons, users } from '../../db/schema';
 
@@ -32,7 +31,19 @@ async function joinClass(account: TestAccount) {
 async function couponOf(account: TestAccount, visibility: 'private' | 'members' | 'public') {
   const response = await api('/api/coupons', {
     jar: account.jar,
-    json: { title: `Class test ${visibility}`, layers: ['steel-1084'], process: 'oven', temperatureC: 260, holdSeconds: 600, visibility },
+    json: {
+      title: `Class test ${visibility}`,
+      layers: ['steel-1084'],
+      surfacePrep: 'ground',
+      surfaceGrit: 400,
+      process: 'oven',
+      temperatureC: 260,
+      temperatureMethod: 'thermocouple',
+      holdSeconds: 600,
+      atmosphere: 'air',
+      cooling: 'still-air',
+      visibility,
+    },
   });
   expect(response.status).toBe(201);
   return ((await response.json()) as { id: number }).id;

@@ -20,11 +20,15 @@ interface Props {
   couponId?: number;
   initial?: CouponInput;
   caution: string;
+  /** Classes the person may share the coupon with, and those it is shared with now. */
+  classes?: { id: number; name: string; term: string | null }[];
+  sharedWith?: number[];
 }
 
 const draftKey = (couponId?: number) => `oxbloom:coupon-draft:${couponId ?? 'new'}`;
 
-export default function CouponForm({ alloys, couponId, initial, caution }: Props) {
+export default function CouponForm({ alloys, couponId, initial, caution, classes = [], sharedWith = [] }: Props) {
+  const [classIds, setClassIds] = useState<number[]>(sharedWith);
   const { control, handleSubmit, reset, setValue, getValues, setError, watch, formState } = useRequestForm(
     initial ? formFromCoupon(initial) : emptyForm,
     couponResolver,
@@ -94,6 +98,12 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
         return;
       }
       localStorage.removeItem(draftKey(couponId));
+      const savedId = answer.body.id ?? couponId;
+      // Class sharing is its own route (the class checks membership); a refusal leaves the coupon saved.
+      for (const cls of classes) {
+        const wanted = classIds.includes(cls.id);
+        if (wanted !== sharedWith.includes(cls.id)) await callApi(`/api/classes/${cls.id}/coupons/${savedId}`, { method: wanted ? 'PUT' : 'DELETE' });
+      }
       window.location.assign(`/coupons/${answer.body.id ?? couponId}${couponId ? '' : '?added=1'}`);
     },
     () => setNotice('Some fields need another look.'),
@@ -249,6 +259,23 @@ export default function CouponForm({ alloys, couponId, initial, caution }: Props
           ))}
         </fieldset>
         <FieldError id="visibility-error" message={formState.errors.visibility?.message} />
+        {classes.length > 0 && (
+          <fieldset className="space-y-1">
+            <legend className="font-medium">Share with a class</legend>
+            <p className="text-sm text-ash-700">The class’s students and instructor see it on the class page; nobody else gains sight of it.</p>
+            {classes.map((cls) => (
+              <label key={cls.id} className="flex items-center gap-2">
+                <input
+                  type="checkbox"
+                  checked={classIds.includes(cls.id)}
+                  onChange={(event) => setClassIds((ids) => (event.target.checked ? [...ids, cls.id] : ids.filter((id) => id !== cls.id)))}
+                />
+                {cls.name}
+                {cls.term && ` (${cls.term})`}
+              </label>
+            ))}
+          </fieldset>
+        )}
       </Section>
 
       {notice && (
