@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { binOf, cohortGrid, type CohortCoupon } from '~/lib/classes/cohort';
 
-const coupon = (id: number, layerKey: string, alloyNames: string[], temperatureC: number | null, holdSeconds: number | null = null): CohortCoupon => ({
+const coupon = (
+  id: number,
+  layerKey: string,
+  alloyNames: string[],
+  temperatureC: number | null,
+  holdSeconds: number | null = null,
+  anodizeVolts: number | null = null,
+): CohortCoupon => ({
   id,
   title: `Coupon ${id}`,
   ownerName: 'A student',
@@ -9,6 +16,7 @@ const coupon = (id: number, layerKey: string, alloyNames: string[], temperatureC
   alloyNames,
   temperatureC,
   holdSeconds,
+  anodizeVolts,
   swatches: [],
 });
 
@@ -39,10 +47,29 @@ describe('cohortGrid', () => {
     // Labels: alloy names sorted, so either layer order reads the same; groups sorted by label.
     expect(grid.map((group) => group.label)).toEqual(['1084 steel', 'Ti grade 2 + Ti grade 5']);
     const steel = grid[0];
-    expect(steel.columns.map((column) => column.temperatureC)).toEqual([250, 300, null]);
+    expect(steel.columns.map((column) => column.heat)).toEqual([
+      { kind: 'temperature', celsius: 250 },
+      { kind: 'temperature', celsius: 300 },
+      { kind: 'unknown' },
+    ]);
     expect(steel.columns[0].coupons.map((entry) => entry.id)).toEqual([5, 3]);
     expect(grid[1].columns).toHaveLength(1);
     expect(grid[1].columns[0].coupons.map((entry) => entry.id)).toEqual([2, 6]);
+  });
+
+  it('places anodized coupons by voltage, after the heated ones', () => {
+    const grid = cohortGrid([
+      coupon(1, 'ti-grade-2', ['Titanium Grade 2'], null, null, 58),
+      coupon(2, 'ti-grade-2', ['Titanium Grade 2'], 400),
+      coupon(3, 'ti-grade-2', ['Titanium Grade 2'], null, null, 17.6),
+      coupon(4, 'ti-grade-2', ['Titanium Grade 2'], null, null, 18),
+    ]);
+    expect(grid[0].columns.map((column) => column.heat)).toEqual([
+      { kind: 'temperature', celsius: 400 },
+      { kind: 'voltage', volts: 18 },
+      { kind: 'voltage', volts: 58 },
+    ]);
+    expect(grid[0].columns[1].coupons.map((entry) => entry.id)).toEqual([3, 4]);
   });
 
   it('is empty for no coupons', () => {

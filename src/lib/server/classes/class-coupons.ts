@@ -98,5 +98,6 @@ export const cohortCoupon = (coupon: ClassCoupon): CohortCoupon => ({
   alloyNames: coupon.layerDetails.map((layer) => layer.alloyName),
   temperatureC: coupon.temperatureC,
   holdSeconds: coupon.holdSeconds,
+  anodizeVolts: coupon.process === 'anodize' ? coupon.volts : null,
   swatches: coupon.swatches,
 });
