@@ -48,4 +48,3 @@ export async function seedDemoClass(tx: Transaction, idByEmail: Map<string, stri
   }
   return classId;
 }
-

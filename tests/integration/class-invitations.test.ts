@@ -180,6 +180,11 @@ describe('accepting', () => {
     // Still usable by its owner afterwards.
     const [row] = await db.select().from(invitations).where(eq(invitations.email, email));
     expect(row.acceptedAt).toBeNull();
+    // Signing out from the page ends that session and comes back to the same link.
+    const signedOut = await api(pathOf(link), { jar: other, form: { intent: 'sign-out' } });
+    expect(signedOut.status).toBe(303);
+    expect(signedOut.headers.get('location')).toBe(pathOf(link));
+    expect((await api('/api/account', { jar: other })).status).toBe(401);
   });
 
   it('does not let a look-alike account accept: an address that differs by a dot is another account', async () => {

@@ -171,10 +171,7 @@ export async function lookUpInvitation(token: string): Promise<InvitationLookup>
   return { state: 'open', invitation };
 }
 
-export type Acceptance =
-  | { status: 'joined'; classId: number }
-  | { status: 'wrong-account'; email: string }
-  | { status: Exclude<InvitationState, 'open'> };
+export type Acceptance = { status: 'joined'; classId: number } | { status: 'wrong-account'; email: string } | { status: Exclude<InvitationState, 'open'> };
 
 /**
  * Accepts an invitation for `user`: only if their stored address is exactly the invitation's, and

@@ -5,7 +5,9 @@ import { hitAll } from '../rate-limit';
 import { createUser, findUserByEmail, findUserById, markEmailVerified, type UserRecord } from '../users';
 import { acceptInvitation, lookUpInvitation, type Acceptance } from './invitations';
 
-export type JoinBySignUp = Limited<{ status: 'joined'; classId: number; user: UserRecord } | { status: 'has-account' } | { status: Exclude<Acceptance['status'], 'joined'> }>;
+export type JoinBySignUp = Limited<
+  { status: 'joined'; classId: number; user: UserRecord } | { status: 'has-account' } | { status: Exclude<Acceptance['status'], 'joined'> }
+>;
 
 /**
  * Makes an account from an invitation and joins the class with it. The invitation's own address

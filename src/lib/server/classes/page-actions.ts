@@ -39,7 +39,8 @@ export async function classPageAction(form: FormData, found: ClassInHand, user: 
     const couponId = parseRouteId(String(form.get('couponId') ?? ''));
     // The coupon's owner or the class's managers, as the API route.
     const coupon = couponId ? await findCoupon(couponId) : undefined;
-    if (coupon && (manager || coupon.ownerId === user.id) && (await unshareCoupon(cls.id, coupon.id))) return { notice: 'The coupon is no longer shared with the class.' };
+    if (coupon && (manager || coupon.ownerId === user.id) && (await unshareCoupon(cls.id, coupon.id)))
+      return { notice: 'The coupon is no longer shared with the class.' };
     return { notice: 'That coupon was not shared with the class.', status: 404 };
   }
   if (!manager) return { notice: 'Only the class’s instructor may do that.', status: 403 };
@@ -53,11 +54,15 @@ export async function classPageAction(form: FormData, found: ClassInHand, user: 
       const id = parseRouteId(String(form.get('invitationId') ?? ''));
       const outcome = id ? await resendInvitation(cls, user, id) : 'not-found';
       if (outcome === 'limited') return { notice: 'Too many invitations to that address this hour. Try again later.', status: 429 };
-      return outcome === 'sent' ? { notice: 'A new link is on its way; the old one no longer works.' } : { notice: 'That invitation is no longer open.', status: 404 };
+      return outcome === 'sent'
+        ? { notice: 'A new link is on its way; the old one no longer works.' }
+        : { notice: 'That invitation is no longer open.', status: 404 };
     }
     case 'revoke': {
       const id = parseRouteId(String(form.get('invitationId') ?? ''));
-      return id && (await revokeInvitation(cls.id, id)) ? { notice: 'Invitation revoked: its link no longer works.' } : { notice: 'That invitation is no longer open.', status: 404 };
+      return id && (await revokeInvitation(cls.id, id))
+        ? { notice: 'Invitation revoked: its link no longer works.' }
+        : { notice: 'That invitation is no longer open.', status: 404 };
     }
     case 'remove': {
       const userId = String(form.get('userId') ?? '').slice(0, 255);
