@@ -4,7 +4,8 @@ import { api, baseUrl, newJar, type Jar } from '../support/app';
 import { confirmedAccount, demo, signedIn, type TestAccount } from '../support/auth';
 import { linkIn, waitForMail } from '../support/mail';
 import { testDatabase } from '../support/database';
-import { classCoupons, coupons, users } from '../../db/schema';
+import { classCoupons, classes, classMembers, coupons, invitations, users } from '../../db/schema';
+import { demoClass } from '../../scripts/seed/classes';
 
 /**
  * Who sees a class and what is shared with it, for every kind of caller, with exact statuses.
@@ -166,5 +167,17 @@ describe('sharing a coupon with a class', () => {
     await joinClass(removed);
     expect((await api(`/api/classes/${classId}/members/${removed.id}`, { jar: jars.instructor, method: 'DELETE' })).status).toBe(204);
     expect((await api(`/api/classes/${classId}`, { jar: removed.jar })).status).toBe(404);
+  });
+});
+
+describe('the demo class', () => {
+  it('is taught by the demo instructor, with three students who share coupons and one invitation waiting', async () => {
+    const [cls] = await db.select().from(classes).where(eq(classes.name, demoClass.name));
+    const [teacher] = await db.select().from(users).where(eq(users.id, cls.instructorId));
+    expect(teacher.email).toBe(demo.instructor);
+    expect(await db.select().from(classMembers).where(eq(classMembers.classId, cls.id))).toHaveLength(3);
+    expect((await db.select().from(classCoupons).where(eq(classCoupons.classId, cls.id))).length).toBeGreaterThan(0);
+    const waiting = await db.select().from(invitations).where(eq(invitations.classId, cls.id));
+    expect(waiting.filter((row) => row.email === demoClass.pending && row.acceptedAt === null)).toHaveLength(1);
   });
 });
