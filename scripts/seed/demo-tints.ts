@@ -39,7 +39,8 @@ const DEMO_GROWTH: Record<string, number> = {
 export function thicknessNm(coupon: DemoHeat, alloy: string): number | null {
   const model = findTintModel(alloy);
   if (!model?.optics) return null;
-  if (coupon.process === 'anodize') return model.anodize && coupon.volts ? anodizeThicknessNm(model.anodize.nmPerVolt.mid, coupon.volts, model.anodize.offsetNm) : null;
+  if (coupon.process === 'anodize')
+    return model.anodize && coupon.volts ? anodizeThicknessNm(model.anodize.nmPerVolt.mid, coupon.volts, model.anodize.offsetNm) : null;
   if (!model.heat || coupon.temperatureC === null || !coupon.holdSeconds) return null;
   const law = heatThicknessNm(model.heat.law, coupon.temperatureC, coupon.holdSeconds / 60);
   const grown = law * (DEMO_GROWTH[alloy] ?? 1) * (coupon.atmosphere === 'argon' ? ARGON_FACTOR : 1);
