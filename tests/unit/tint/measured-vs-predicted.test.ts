@@ -69,6 +69,7 @@ describe('a measured swatch on the tint ladder beside the predicted band', () =>
       basis: 'reference',
       couponCount: 0,
       warnings: [],
+      atmosphere: 'air',
     };
   };
 
