@@ -53,7 +53,7 @@ function staticChecks() {
 }
 
 async function main() {
-  ensureDebianPackages({ mariadbd: 'mariadb-server', chromium: 'chromium', 'heif-enc': 'libheif-examples' });
+  ensureDebianPackages({ mariadbd: 'mariadb-server', chromium: 'chromium', 'heif-enc': 'libheif-examples', pdfinfo: 'poppler-utils' });
   ensureNodeModules();
   const { startServices, startApp, stopServices, authSecret, logFile } = await import('./services/index.mjs');
   const { migrate, seed, build } = await import('./services/tasks.mjs');

@@ -1,8 +1,7 @@
-import { char, index, int, mysqlEnum, mysqlTable, primaryKey, smallint, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
+import { char, index, int, mysqlEnum, mysqlTable, primaryKey, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 import { users } from './users';
 import { coupons } from './coupons';
-import { swatches } from './photos';
 
 /** A class run by an instructor. */
 export const classes = mysqlTable(
@@ -79,41 +78,4 @@ export const classCoupons = mysqlTable(
     sharedAt: timestamps.createdAt,
   },
   (table) => [primaryKey({ columns: [table.classId, table.couponId] }), index('class_coupons_coupon_idx').on(table.couponId)],
-);
-
-export const sheetStatuses = ['draft', 'published'] as const;
-
-/** An instructor's printable colour sheet. */
-export const colourSheets = mysqlTable(
-  'colour_sheets',
-  {
-    id: int('id').autoincrement().primaryKey(),
-    // A published sheet outlives its author's account; it keeps only swatches that still exist.
-    ownerId: varchar('owner_id', { length: 255 }).references(() => users.id, { onDelete: 'set null' }),
-    classId: int('class_id').references(() => classes.id, { onDelete: 'set null' }),
-    slug: varchar('slug', { length: 64 }).notNull().unique(),
-    title: varchar('title', { length: 160 }).notNull(),
-    intro: text('intro'),
-    status: mysqlEnum('status', sheetStatuses).notNull().default('draft'),
-    publishedAt: timestamp('published_at', { mode: 'date' }),
-    ...timestamps,
-  },
-  (table) => [index('colour_sheets_owner_idx').on(table.ownerId)],
-);
-
-/** A swatch on a colour sheet; it goes when its swatch goes. */
-export const colourSheetItems = mysqlTable(
-  'colour_sheet_items',
-  {
-    id: int('id').autoincrement().primaryKey(),
-    sheetId: int('sheet_id')
-      .notNull()
-      .references(() => colourSheets.id, { onDelete: 'cascade' }),
-    swatchId: int('swatch_id')
-      .notNull()
-      .references(() => swatches.id, { onDelete: 'cascade' }),
-    position: smallint('position').notNull(),
-    note: text('note'),
-  },
-  (table) => [index('colour_sheet_items_sheet_idx').on(table.sheetId, table.position)],
 );

@@ -11,3 +11,10 @@ export const processes = ['oven', 'forge', 'torch', 'induction', 'anodize'] as c
 export const temperatureMethods = ['thermocouple', 'pyrometer', 'oven-setpoint', 'estimated'] as const;
 export const atmospheres = ['air', 'argon', 'other'] as const;
 export const coolings = ['still-air', 'forced-air', 'water-quench', 'oil-quench', 'in-furnace', 'in-can', 'other'] as const;
+
+export const sheetStatuses = ['draft', 'published'] as const;
+export const sheetAudiences = ['class', 'public'] as const;
+export const sheetUnits = ['c', 'f'] as const;
+export const sheetPageSizes = ['a4', 'letter'] as const;
+export const sheetOrientations = ['portrait', 'landscape'] as const;
+export const sheetItemKinds = ['heading', 'swatch'] as const;

@@ -5,5 +5,6 @@ export * from './alloys';
 export * from './coupons';
 export * from './photos';
 export * from './classes';
+export * from './sheets';
 export * from './settings';
 export * from './library';
