@@ -27,7 +27,11 @@ export const colourSheets = mysqlTable(
     publishedAt: timestamp('published_at', { mode: 'date' }),
     ...timestamps,
   },
-  (table) => [index('colour_sheets_owner_idx').on(table.ownerId), index('colour_sheets_class_idx').on(table.classId), index('colour_sheets_status_idx').on(table.status, table.audience)],
+  (table) => [
+    index('colour_sheets_owner_idx').on(table.ownerId),
+    index('colour_sheets_class_idx').on(table.classId),
+    index('colour_sheets_status_idx').on(table.status, table.audience),
+  ],
 );
 
 /** What a swatch looked like when it was put on a sheet, so a later change or loss is noticed. */

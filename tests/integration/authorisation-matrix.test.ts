@@ -1,4 +1,4 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
@@ -30,6 +30,8 @@ interface Ids {
   memberPhoto: Record<'private' | 'members', number>;
   /** The demo class: the demo instructor teaches it, the demo member is a student, member2 is not in it. */
   demoClass: number;
+  /** The demo instructor's sheets: a draft, and one published for everyone. */
+  sheet: Record<'draft' | 'public', number>;
 }
 
 const all = (status: number): Record<Who, number> => ({ visitor: status, member: status, member2: status, instructor: status, admin: status });
@@ -301,6 +303,56 @@ export const matrix: Row[] = [
     path: (ids) => `/api/classes/${ids.demoClass}/coupons/99999999`,
     expect: { visitor: 401, member: 404, member2: 404, instructor: 404, admin: 404 },
   },
+  // colour sheets (the owner is the demo instructor; class audiences and students: tests/integration/sheets.test.ts)
+  { route: 'list sheets', method: 'GET', path: '/api/sheets', expect: all(200) },
+  {
+    route: 'start a sheet, invalid',
+    method: 'POST',
+    path: '/api/sheets',
+    json: { title: '' },
+    expect: { visitor: 401, member: 403, member2: 403, instructor: 400, admin: 400 },
+  },
+  {
+    route: 'open a draft sheet',
+    method: 'GET',
+    path: (ids) => `/api/sheets/${ids.sheet.draft}`,
+    expect: { visitor: 404, member: 404, member2: 404, instructor: 200, admin: 200 },
+  },
+  { route: 'open a public sheet', method: 'GET', path: (ids) => `/api/sheets/${ids.sheet.public}`, expect: all(200) },
+  {
+    route: 'change a draft sheet, invalid',
+    method: 'PATCH',
+    path: (ids) => `/api/sheets/${ids.sheet.draft}`,
+    json: { title: '' },
+    expect: { visitor: 401, member: 404, member2: 404, instructor: 400, admin: 400 },
+  },
+  {
+    route: 'change a public sheet, invalid',
+    method: 'PATCH',
+    path: (ids) => `/api/sheets/${ids.sheet.public}`,
+    json: { title: '' },
+    expect: { visitor: 401, member: 403, member2: 403, instructor: 400, admin: 400 },
+  },
+  {
+    route: 'delete a draft sheet',
+    method: 'DELETE',
+    path: (ids) => `/api/sheets/${ids.sheet.draft}`,
+    expect: { visitor: 401, member: 404, member2: 404, instructor: null, admin: null },
+  },
+  {
+    route: 'delete a public sheet',
+    method: 'DELETE',
+    path: (ids) => `/api/sheets/${ids.sheet.public}`,
+    expect: { visitor: 401, member: 403, member2: 403, instructor: null, admin: null },
+  },
+  {
+    route: 'a draft sheet’s PDF',
+    method: 'GET',
+    path: (ids) => `/api/sheets/${ids.sheet.draft}/pdf`,
+    expect: { visitor: 404, member: 404, member2: 404, instructor: 200, admin: 200 },
+  },
+  { route: 'a public sheet’s PDF, Letter', method: 'GET', path: (ids) => `/api/sheets/${ids.sheet.public}/pdf?size=letter`, expect: all(200) },
+  { route: 'a public sheet’s PDF, unknown size', method: 'GET', path: (ids) => `/api/sheets/${ids.sheet.public}/pdf?size=a3`, expect: all(400) },
 ];
 
 const jars = {} as Record<Who, Jar>;
@@ -335,6 +387,16 @@ beforeAll(async () => {
   ids.memberPhoto = { private: await photoOf('private'), members: await photoOf('members') };
   const classes = ((await (await api('/api/classes', { jar: jars.instructor })).json()) as { classes: { id: number; name: string }[] }).classes;
   ids.demoClass = classes.find((cls) => cls.name === demoClass.name)!.id;
+  const startSheet = async (title: string) => {
+    const response = await api('/api/sheets', { jar: jars.instructor, json: { title, audience: 'public' } });
+    return ((await response.json()) as { id: number }).id;
+  };
+  ids.sheet = { draft: await startSheet('Matrix draft sheet'), public: await startSheet('Matrix public sheet') };
+  await api(`/api/sheets/${ids.sheet.public}`, { method: 'PATCH', jar: jars.instructor, json: { status: 'published' } });
+});
+
+afterAll(async () => {
+  for (const id of Object.values(ids.sheet ?? {})) await api(`/api/sheets/${id}`, { method: 'DELETE', jar: jars.instructor });
 });
 
 const cases = matrix.flatMap((row) => everyone.filter((who) => row.expect[who] !== null).map((who) => ({ ...row, who, status: row.expect[who] })));
@@ -385,6 +447,12 @@ describe('no page answers 500 to a stranger', () => {
     '/admin/users',
     '/coupons',
     '/coupons/new',
+    '/sheets',
+    '/sheets/new',
+    '/sheets/abc',
+    '/sheets/999999999',
+    '/sheets/1e2/edit',
+    '/sheets/999999999/edit',
     '/coupons/abc',
     '/coupons/0',
     '/coupons/99999999',

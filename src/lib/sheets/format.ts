@@ -43,8 +43,9 @@ export function heatLines(heat: SheetHeat, hidden: HiddenFields, units: SheetUni
 /** The note an instructor sees when swatches left the sheet. */
 export function removedNote(count: number): string | null {
   if (count === 0) return null;
-  const swatches = count === 1 ? '1 swatch was removed: its coupon is' : `${count} swatches were removed: their coupons are`;
-  return `${swatches} no longer shared or were deleted.`;
+  return count === 1
+    ? '1 swatch was removed: its coupon is no longer shared or was deleted.'
+    : `${count} swatches were removed: their coupons are no longer shared or were deleted.`;
 }
 
 export const COLOUR_DISCLAIMER =

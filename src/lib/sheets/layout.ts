@@ -60,7 +60,12 @@ export function pageCapacity(grid: Grid, first: boolean, geometry: Geometry = SH
   return Math.max(0, rows) * grid.columns;
 }
 
-export function layoutSheet<T>(entries: readonly LayoutEntry<T>[], size: PageSizeName, orientation: Orientation, geometry: Geometry = SHEET_GEOMETRY): PageLayout<T>[] {
+export function layoutSheet<T>(
+  entries: readonly LayoutEntry<T>[],
+  size: PageSizeName,
+  orientation: Orientation,
+  geometry: Geometry = SHEET_GEOMETRY,
+): PageLayout<T>[] {
   const grid = gridFor(size, orientation, geometry);
   const left = geometry.margin;
   const rowStep = geometry.cellHeight + geometry.gap;

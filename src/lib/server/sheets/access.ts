@@ -75,3 +75,9 @@ export async function studentsOf(classId: number): Promise<{ userId: string }[]>
     .from(classMembers)
     .where(and(eq(classMembers.classId, classId), eq(classMembers.role, 'student')));
 }
+
+/** The classes a person teaches (every class for an admin), for the sheet's class picker. */
+export async function taughtClasses(viewer: Viewer): Promise<{ id: number; name: string }[]> {
+  const query = db().select({ id: classes.id, name: classes.name }).from(classes);
+  return viewer.role === 'admin' ? query.orderBy(classes.name).limit(500) : query.where(eq(classes.instructorId, viewer.id)).orderBy(classes.name);
+}

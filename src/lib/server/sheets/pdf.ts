@@ -41,10 +41,21 @@ function drawSwatch(doc: PDFKit.PDFDocument, entry: SheetSwatchEntry, x: number,
   const textWidth = cellWidth - SWATCH - 8;
   doc.font('sansBold').fontSize(9).fillColor(INK).text(entry.hex.toUpperCase(), textX, y, { width: textWidth, lineBreak: false });
   const [l, a, b] = formatLab(entry.lab).split('  ');
-  doc.font('sans').fontSize(7.5).fillColor(MUTED).text(`${l}\n${a}  ${b}`, textX, y + 12, { width: textWidth, height: 20, lineGap: 0.5 });
+  doc
+    .font('sans')
+    .fontSize(7.5)
+    .fillColor(MUTED)
+    .text(`${l}\n${a}  ${b}`, textX, y + 12, { width: textWidth, height: 20, lineGap: 0.5 });
   if (entry.prediction) {
-    doc.rect(textX, y + 34, 20, 20).fillColor(entry.prediction.hex).fill();
-    doc.rect(textX, y + 34, 20, 20).lineWidth(0.5).strokeColor(RULE).stroke();
+    doc
+      .rect(textX, y + 34, 20, 20)
+      .fillColor(entry.prediction.hex)
+      .fill();
+    doc
+      .rect(textX, y + 34, 20, 20)
+      .lineWidth(0.5)
+      .strokeColor(RULE)
+      .stroke();
     doc
       .font('sans')
       .fontSize(6.5)
@@ -53,12 +64,21 @@ function drawSwatch(doc: PDFKit.PDFDocument, entry: SheetSwatchEntry, x: number,
   }
   let lineY = y + SWATCH + 6;
   if (entry.lines.length) {
-    doc.font('sans').fontSize(8).fillColor(INK).text(entry.lines.join('\n'), x, lineY, { width: cellWidth, height: entry.lines.length * 10.5, lineGap: 0.5 });
+    doc
+      .font('sans')
+      .fontSize(8)
+      .fillColor(INK)
+      .text(entry.lines.join('\n'), x, lineY, { width: cellWidth, height: entry.lines.length * 10.5, lineGap: 0.5 });
     lineY += entry.lines.length * 10.5;
   }
   if (entry.caption) {
     const room = y + cellHeight - lineY;
-    if (room > 9) doc.font('serif').fontSize(8).fillColor(INK).text(entry.caption, x, lineY + 1, { width: cellWidth, height: room, ellipsis: true });
+    if (room > 9)
+      doc
+        .font('serif')
+        .fontSize(8)
+        .fillColor(INK)
+        .text(entry.caption, x, lineY + 1, { width: cellWidth, height: room, ellipsis: true });
   }
 }
 
@@ -72,9 +92,17 @@ function drawTitleBlock(doc: PDFKit.PDFDocument, sheet: SheetView, width: number
     `Temperatures in ${sheet.units === 'f' ? '°F' : '°C'}`,
     sheet.showPrediction ? 'Small squares: the model for the same heat' : null,
   ].filter(Boolean);
-  doc.font('sans').fontSize(8.5).fillColor(MUTED).text(meta.join('  ·  '), margin, margin + 30, { width: inner, height: 12, ellipsis: true, lineBreak: false });
+  doc
+    .font('sans')
+    .fontSize(8.5)
+    .fillColor(MUTED)
+    .text(meta.join('  ·  '), margin, margin + 30, { width: inner, height: 12, ellipsis: true, lineBreak: false });
   if (sheet.intro) {
-    doc.font('serif').fontSize(10).fillColor(INK).text(sheet.intro, margin, margin + 48, { width: inner, height: titleBlockHeight - 64, ellipsis: true, lineGap: 1.5 });
+    doc
+      .font('serif')
+      .fontSize(10)
+      .fillColor(INK)
+      .text(sheet.intro, margin, margin + 48, { width: inner, height: titleBlockHeight - 64, ellipsis: true, lineGap: 1.5 });
   }
   doc
     .moveTo(margin, margin + titleBlockHeight - 10)
@@ -88,8 +116,17 @@ function drawFooter(doc: PDFKit.PDFDocument, width: number, height: number, page
   const { margin, footerHeight } = SHEET_GEOMETRY;
   const top = height - margin - footerHeight + 8;
   const inner = width - 2 * margin;
-  doc.moveTo(margin, top).lineTo(width - margin, top).lineWidth(0.5).strokeColor(RULE).stroke();
-  doc.font('sansBold').fontSize(7).fillColor(INK).text('Safety', margin, top + 5, { width: 40, lineBreak: false });
+  doc
+    .moveTo(margin, top)
+    .lineTo(width - margin, top)
+    .lineWidth(0.5)
+    .strokeColor(RULE)
+    .stroke();
+  doc
+    .font('sansBold')
+    .fontSize(7)
+    .fillColor(INK)
+    .text('Safety', margin, top + 5, { width: 40, lineBreak: false });
   doc
     .font('sans')
     .fontSize(7)
@@ -127,7 +164,11 @@ export async function renderSheetPdf(sheet: SheetView, size: PageSizeName = shee
     if (index === 0) drawTitleBlock(doc, sheet, page.width);
     for (const entry of page.entries) {
       if (entry.kind === 'heading') {
-        doc.font('serifBold').fontSize(13).fillColor(INK).text(entry.text, entry.x, entry.y + 6, { width: entry.width, height: 18, ellipsis: true, lineBreak: false });
+        doc
+          .font('serifBold')
+          .fontSize(13)
+          .fillColor(INK)
+          .text(entry.text, entry.x, entry.y + 6, { width: entry.width, height: 18, ellipsis: true, lineBreak: false });
       } else drawSwatch(doc, entry.item, entry.x, entry.y);
     }
     drawFooter(doc, page.width, page.height, index + 1, pages.length);

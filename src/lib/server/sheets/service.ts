@@ -29,12 +29,20 @@ export async function checkClass(viewer: Viewer, classId: number | null | undefi
 }
 
 /**
- * Turns the sent entries into rows: a kept entry (`itemId`) keeps its swatch and snapshot; a new
+ * Turns the sent entries into rows: a kept entry (`itemId`, or a swatch already on the sheet) keeps
+ * its swatch and snapshot; a new
  * swatch must be one the owner may see, or one shared with the sheet's class, and its colour and
  * heat record are copied as the snapshot.
  */
-export async function resolveItems(sheet: SheetRow, classId: number | null, items: NonNullable<UpdateSheetInput['items']>, viewer: Viewer): Promise<ItemToWrite[] | Response> {
-  const existing = new Map((await itemsOf(sheet.id)).map((row) => [row.id, row]));
+export async function resolveItems(
+  sheet: SheetRow,
+  classId: number | null,
+  items: NonNullable<UpdateSheetInput['items']>,
+  viewer: Viewer,
+): Promise<ItemToWrite[] | Response> {
+  const rows = await itemsOf(sheet.id);
+  const existing = new Map(rows.map((row) => [row.id, row]));
+  const onSheet = new Map(rows.flatMap((row) => (row.swatchId === null ? [] : [[row.swatchId, row] as const])));
   const newIds = items.flatMap((item) => (item.kind === 'swatch' && item.swatchId !== undefined ? [item.swatchId] : []));
   const sources = await swatchSources(newIds);
   const couponIds = [...new Set([...sources.values()].map((source) => source.couponId))];
@@ -49,6 +57,12 @@ export async function resolveItems(sheet: SheetRow, classId: number | null, item
     if (itemId !== undefined) {
       const kept = existing.get(itemId);
       if (!kept || kept.kind !== 'swatch') return problem(400, `items.${index}.itemId: that entry is not on this sheet.`, `items.${index}.itemId`);
+      written.push({ ...annotation, swatchId: kept.swatchId, couponId: kept.couponId, snapshot: kept.snapshot });
+      continue;
+    }
+    // A swatch already on the sheet keeps its snapshot, so a later change of colour stays visible.
+    const kept = onSheet.get(swatchId!);
+    if (kept) {
       written.push({ ...annotation, swatchId: kept.swatchId, couponId: kept.couponId, snapshot: kept.snapshot });
       continue;
     }

@@ -105,7 +105,13 @@ export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise
     const couponLayers = source ? (layers.get(source.couponId) ?? []) : [];
     const snapshot = row.snapshot;
     const heat: SheetHeat = source
-      ? { temperatureC: source.temperatureC, holdSeconds: source.holdSeconds, volts: source.volts, process: source.process, alloys: couponLayers.map((layer) => layer.alloyName) }
+      ? {
+          temperatureC: source.temperatureC,
+          holdSeconds: source.holdSeconds,
+          volts: source.volts,
+          process: source.process,
+          alloys: couponLayers.map((layer) => layer.alloyName),
+        }
       : { temperatureC: null, holdSeconds: null, process: snapshot?.process ?? 'oven', alloys: [] };
     entries.push({
       kind: 'swatch',
@@ -119,7 +125,13 @@ export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise
       caption: row.caption ?? '',
       ...hidden,
       lines: available ? heatLines(heat, hidden, sheet.units) : [],
-      prediction: available && sheet.showPrediction ? predictionFor(heat, couponLayers.map((layer) => layer.alloy)) : null,
+      prediction:
+        available && sheet.showPrediction
+          ? predictionFor(
+              heat,
+              couponLayers.map((layer) => layer.alloy),
+            )
+          : null,
       available,
       unavailableReason: available ? undefined : source ? 'not-shared' : 'deleted',
       changed: owner && source !== undefined && snapshot !== null && snapshot.hex.toLowerCase() !== source.hex.toLowerCase(),

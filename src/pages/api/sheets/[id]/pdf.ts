@@ -8,10 +8,10 @@ import { sheetView } from '~/lib/server/sheets/view';
 
 /** The print-ready PDF, A4 or Letter (the sheet's own size unless `size` says otherwise). */
 export const GET: APIRoute = async ({ params, locals, url }) => {
-  const query = parseValue(Object.fromEntries(url.searchParams), pdfQuerySchema);
-  if (!query.ok) return query.response;
   const sheet = await sheetFromRoute(params, locals.user);
   if (isResponse(sheet)) return sheet;
+  const query = parseValue(Object.fromEntries(url.searchParams), pdfQuerySchema);
+  if (!query.ok) return query.response;
   const view = await sheetView(sheet, locals.user);
   const pdf = await renderSheetPdf(view, query.data.size);
   const name = `colour-sheet-${sheet.id}-${query.data.size ?? sheet.pageSize}.pdf`;
