@@ -1,12 +1,12 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type SyntheticEvent } from 'react';
 import { callApi } from '~/components/api-client';
 
 /** Starts a draft sheet and opens its builder. */
 export default function NewSheetForm({ classes }: { classes: { id: number; name: string }[] }) {
   const [title, setTitle] = useState('');
-  const [classId, setClassId] = useState(classes[0]?.id ?? null);
+  const [classId, setClassId] = useState<number | null>(classes[0]?.id ?? null);
   const [error, setError] = useState('');
-  async function submit(event: FormEvent) {
+  async function submit(event: SyntheticEvent) {
     event.preventDefault();
     const answer = await callApi<{ id: number }>('/api/sheets', { method: 'POST', body: { title, classId, audience: classId ? 'class' : 'public' } });
     if (answer.ok) window.location.assign(`/sheets/${answer.body.id}/edit`);

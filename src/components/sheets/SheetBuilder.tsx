@@ -119,12 +119,12 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
 
   async function search() {
     setSearchMessage('Searching…');
-    const answer = await callApi<{ hits: { swatchId: number; hex: string; couponTitle?: string; deltaE00: number }[] }>(
-      `/api/swatches/search?hex=${encodeURIComponent(searchHex)}&maxDeltaE=12&limit=40`,
+    const answer = await callApi<{ hits: { swatchId: number; hex: string; coupon: { title: string }; deltaE00: number }[] }>(
+      `/api/swatches/search?hex=${encodeURIComponent(searchHex)}&maxDeltaE=10&limit=40`,
     );
     if (!answer.ok) return setSearchMessage(answer.message);
-    setFound(answer.body.hits.map((hit) => ({ swatchId: hit.swatchId, hex: hit.hex, couponTitle: hit.couponTitle ?? `ΔE00 ${hit.deltaE00.toFixed(1)}` })));
-    setSearchMessage(`${answer.body.hits.length} swatches within ΔE00 12.`);
+    setFound(answer.body.hits.map((hit) => ({ swatchId: hit.swatchId, hex: hit.hex, couponTitle: `${hit.coupon.title} (ΔE00 ${hit.deltaE00.toFixed(1)})` })));
+    setSearchMessage(`${answer.body.hits.length} swatches within ΔE00 10.`);
   }
 
   async function publish(next: SheetStatus) {
