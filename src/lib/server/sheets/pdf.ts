@@ -32,6 +32,7 @@ const INK = '#1c1917';
 const MUTED = '#57534e';
 const RULE = '#a8a29e';
 const SWATCH = 54;
+const LINE = 11;
 
 function drawSwatch(doc: PDFKit.PDFDocument, entry: SheetSwatchEntry, x: number, y: number) {
   const { cellWidth, cellHeight } = SHEET_GEOMETRY;
@@ -63,13 +64,10 @@ function drawSwatch(doc: PDFKit.PDFDocument, entry: SheetSwatchEntry, x: number,
       .text(`${entry.prediction.note}: ${entry.prediction.name}`, textX + 24, y + 35, { width: textWidth - 24, height: 20, ellipsis: true });
   }
   let lineY = y + SWATCH + 6;
-  if (entry.lines.length) {
-    doc
-      .font('sans')
-      .fontSize(8)
-      .fillColor(INK)
-      .text(entry.lines.join('\n'), x, lineY, { width: cellWidth, height: entry.lines.length * 10.5, lineGap: 0.5 });
-    lineY += entry.lines.length * 10.5;
+  // One line each; a long laminate name is cut with an ellipsis rather than pushed into the caption.
+  for (const line of entry.lines) {
+    doc.font('sans').fontSize(8).fillColor(INK).text(line, x, lineY, { width: cellWidth, height: LINE, ellipsis: true, lineBreak: false });
+    lineY += LINE;
   }
   if (entry.caption) {
     const room = y + cellHeight - lineY;

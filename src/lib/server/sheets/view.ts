@@ -159,4 +159,8 @@ export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise
 }
 
 /** The entries the audience gets: what the page, print and PDF show. */
-export const printedEntries = (view: SheetView) => view.entries.filter((entry) => entry.kind === 'heading' || entry.available);
+export function printedEntries(view: SheetView): SheetEntry[] {
+  const shown = view.entries.filter((entry) => entry.kind === 'heading' || entry.available);
+  // A heading with no swatch left under it is not printed.
+  return shown.filter((entry, index) => entry.kind === 'swatch' || shown[index + 1]?.kind === 'swatch');
+}
