@@ -117,7 +117,7 @@ describe('logging a coupon with photos in Chromium', () => {
 
     // Swatches per layer, white-balanced from the grey card: the leading chip is the layer's colour.
     // Source: the known layer colours of the synthetic scene (see tests/fixtures/synthetic-photos.ts).
-    await photo.getByText('White-balanced from the grey card.').waitFor();
+    await photo.getByText('White-balanced and exposed from the grey card.').waitFor();
     for (const [index, name] of ['Layer 1: Titanium Grade 2', 'Layer 2: Ti-6Al-4V (Grade 5)'].entries()) {
       const swatches = photo.getByRole('region', { name: `Swatches of ${name}` });
       const chip = swatches.getByRole('listitem').first();
