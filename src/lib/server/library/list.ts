@@ -91,24 +91,35 @@ async function pageRows(where: SQL | undefined, query: LibraryQuery, cursor: Lib
 }
 
 /** How many coupons match, up to the cap (a count that stops at the cap's row). */
-async function cappedTotal(where: SQL | undefined): Promise<{ total: number; totalExact: boolean }> {
+async function cappedTotal(where: SQL | undefined, cap = TOTAL_CAP): Promise<{ total: number; totalExact: boolean }> {
   const matching = db()
     .select({ one: sql`1` })
     .from(coupons)
     .where(where)
-    .limit(TOTAL_CAP + 1)
+    .limit(cap + 1)
     .as('matching');
   const [{ total }] = await db().select({ total: count() }).from(matching);
-  return total > TOTAL_CAP ? { total: TOTAL_CAP, totalExact: false } : { total, totalExact: true };
+  return total > cap ? { total: cap, totalExact: false } : { total, totalExact: true };
+}
+
+/** Whether more than `cap` coupons of the view match (one count that stops at the row after the cap). */
+export async function matchesMoreThan(viewer: Viewer, query: LibraryQuery, cap: number): Promise<boolean> {
+  const alloyId = query.alloy ? await alloyIdOf(query.alloy) : undefined;
+  return !(await cappedTotal(libraryWhere(viewer, query, alloyId), cap)).totalExact;
+}
+
+export interface ListOptions {
+  /** false: skip the capped count (callers that page through every row need none); `total` is then the page's rows. */
+  count?: boolean;
 }
 
 /**
  * One page of the library: the coupons the viewer may see that match the query, in its order,
  * paged by keyset (or by offset, for older callers), each with its layers' dominant swatches, and
- * the number that match (exact up to TOTAL_CAP). Throws BadCursor when the cursor is not one of
- * ours for this sort.
+ * the number that match (exact up to TOTAL_CAP; with `count: false`, not counted). Throws BadCursor
+ * when the cursor is not one of ours for this sort.
  */
-export async function listLibrary(viewer: Viewer, query: LibraryQuery): Promise<LibraryPage> {
+export async function listLibrary(viewer: Viewer, query: LibraryQuery, options: ListOptions = {}): Promise<LibraryPage> {
   const cursor = query.cursor === undefined ? undefined : decodeCursor(query.cursor, query.sort, query.order);
   if (query.cursor !== undefined && !cursor) throw new BadCursor('That page link is out of date or not one of ours.');
   const alloyId = query.alloy ? await alloyIdOf(query.alloy) : undefined;
@@ -117,7 +128,11 @@ export async function listLibrary(viewer: Viewer, query: LibraryQuery): Promise<
   const page = rows.slice(0, query.limit);
   // A first page that holds every match needs no count.
   const { total, totalExact } =
-    !cursor && query.offset === 0 && rows.length <= query.limit ? { total: rows.length, totalExact: true } : await cappedTotal(where);
+    options.count === false
+      ? { total: page.length, totalExact: false }
+      : !cursor && query.offset === 0 && rows.length <= query.limit
+        ? { total: rows.length, totalExact: true }
+        : await cappedTotal(where);
   const last = page.at(-1);
   const nextCursor =
     rows.length > query.limit && last ? encodeCursor({ sort: query.sort, order: query.order, value: cursorValue(last, query.sort), id: last.id }) : null;
