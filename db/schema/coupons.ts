@@ -39,6 +39,8 @@ export const coupons = mysqlTable(
   (table) => [
     index('coupons_owner_idx').on(table.ownerId, table.createdAt),
     index('coupons_visibility_idx').on(table.visibility, table.createdAt),
+    // The front page's newest public coupons of one pair: an ordered walk that stops at a handful.
+    index('coupons_visibility_pair_idx').on(table.visibility, table.layerKey, table.createdAt),
     index('coupons_layer_key_idx').on(table.layerKey, table.temperatureC),
     index('coupons_process_idx').on(table.process, table.temperatureC),
     index('coupons_temperature_idx').on(table.temperatureC),

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNotNull, lte, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, lt, or, sql } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
 import { findAlloy } from '~/lib/alloys';
 import { db } from '~/lib/server/db';
@@ -46,45 +46,81 @@ const twoAlloys = sql`${coupons.layerKey} like '%+%' and ${coupons.layerKey} not
 /** A coupon with at least one measured colour on a layer (region means left out). */
 const measured = sql`exists (select 1 from ${swatches} where ${swatches.couponId} = ${coupons.id} and ${swatches.layerId} is not null and ${swatches.isMean} = false)`;
 
+/** Coupons read per step of the walk that finds the newest pairs. */
+const WALK_BATCH = 200;
+
+const recentColumns = {
+  id: coupons.id,
+  layerKey: coupons.layerKey,
+  title: coupons.title,
+  process: coupons.process,
+  temperatureC: coupons.temperatureC,
+  holdSeconds: coupons.holdSeconds,
+  volts: coupons.volts,
+  createdAt: coupons.createdAt,
+};
+
+/**
+ * The layer keys of the `limit` pairs with the most recently logged measured public coupons,
+ * newest first (ties by key). Walks the public coupons newest first on the (visibility, created)
+ * index a batch at a time and stops once `limit` pairs are found and the walk has passed the last
+ * one's newest coupon, so it reads a few hundred index entries however large the library.
+ */
+async function newestPairs(limit: number): Promise<string[]> {
+  const latest = new Map<string, number>();
+  let after: { createdAt: Date; id: number } | undefined;
+  let lastFound = Infinity;
+  walk: for (;;) {
+    const batch = await db()
+      .select({ id: coupons.id, layerKey: coupons.layerKey, createdAt: coupons.createdAt })
+      .from(coupons)
+      .where(
+        and(
+          eq(coupons.visibility, 'public'),
+          twoAlloys,
+          measured,
+          after ? or(lt(coupons.createdAt, after.createdAt), and(eq(coupons.createdAt, after.createdAt), lt(coupons.id, after.id))) : undefined,
+        ),
+      )
+      .orderBy(desc(coupons.createdAt), desc(coupons.id))
+      .limit(WALK_BATCH);
+    for (const row of batch) {
+      const at = new Date(row.createdAt).getTime();
+      if (latest.size >= limit && at < lastFound) break walk;
+      if (!latest.has(row.layerKey)) {
+        latest.set(row.layerKey, at);
+        lastFound = at;
+      }
+    }
+    if (batch.length < WALK_BATCH) break;
+    after = batch.at(-1)!;
+  }
+  return [...latest]
+    .sort(([keyA, atA], [keyB, atB]) => atB - atA || (keyA < keyB ? -1 : keyA > keyB ? 1 : 0))
+    .slice(0, limit)
+    .map(([key]) => key);
+}
+
 /**
  * The front page's "recent in the library": the alloy pairs with the most recently logged public
  * coupons that have measured swatches, newest pair first, each with its newest such coupons and
  * each coupon's dominant swatch per alloy. Public coupons only, whoever asks: it is the front page.
+ * Each pair's coupons are an ordered walk of the (visibility, layer key, created) index that stops
+ * at `perPair`.
  */
 export async function recentPublicPairs(limits: RecentLimits = { pairs: 6, perPair: 6 }): Promise<RecentPair[]> {
-  const ranked = db()
-    .select({
-      id: coupons.id,
-      layerKey: coupons.layerKey,
-      title: coupons.title,
-      process: coupons.process,
-      temperatureC: coupons.temperatureC,
-      holdSeconds: coupons.holdSeconds,
-      volts: coupons.volts,
-      createdAt: coupons.createdAt,
-      couponRank: sql<number>`row_number() over (partition by ${coupons.layerKey} order by ${coupons.createdAt} desc, ${coupons.id} desc)`.as('coupon_rank'),
-      pairLatest: sql<Date>`max(${coupons.createdAt}) over (partition by ${coupons.layerKey})`.as('pair_latest'),
-    })
-    .from(coupons)
-    .where(and(eq(coupons.visibility, 'public'), twoAlloys, measured))
-    .as('ranked');
-  const paired = db()
-    .select({
-      id: ranked.id,
-      layerKey: ranked.layerKey,
-      title: ranked.title,
-      process: ranked.process,
-      temperatureC: ranked.temperatureC,
-      holdSeconds: ranked.holdSeconds,
-      volts: ranked.volts,
-      createdAt: ranked.createdAt,
-      couponRank: ranked.couponRank,
-      pairRank: sql<number>`dense_rank() over (order by ${ranked.pairLatest} desc, ${ranked.layerKey})`.as('pair_rank'),
-    })
-    .from(ranked)
-    .where(lte(ranked.couponRank, limits.perPair))
-    .as('paired');
-  const rows = await db().select().from(paired).where(lte(paired.pairRank, limits.pairs)).orderBy(asc(paired.pairRank), asc(paired.couponRank));
+  const keys = await newestPairs(limits.pairs);
+  const perPair = await Promise.all(
+    keys.map((key) =>
+      db()
+        .select(recentColumns)
+        .from(coupons)
+        .where(and(eq(coupons.visibility, 'public'), eq(coupons.layerKey, key), measured))
+        .orderBy(desc(coupons.createdAt), desc(coupons.id))
+        .limit(limits.perPair),
+    ),
+  );
+  const rows = perPair.flat();
   const dominant = await dominantByCoupon(rows.map((row) => row.id));
 
   const pairs = new Map<string, RecentPair>();

@@ -1,0 +1,1 @@
+CREATE INDEX `coupons_visibility_pair_idx` ON `coupons` (`visibility`,`layer_key`,`created_at`);
