@@ -187,6 +187,16 @@ export interface MatrixCell {
   row: number;
   column: number;
   coupons: MatrixCoupon[];
+  /** How many coupons the cell holds: more than `coupons` carries when the server kept only the newest. */
+  count: number;
+}
+
+/** What the server counted where the coupons are, when it carries only some of each cell's coupons. */
+export interface CellCounts {
+  /** The lowest and highest temperature of every binnable coupon (carried or not), so the rows span them all. */
+  temperaturesC: readonly number[];
+  /** Coupons per cell, by cell index (row × columns + column); a cell not named holds none. */
+  perCell: ReadonlyMap<number, number>;
 }
 
 export interface PredictedLayer {
@@ -283,27 +293,29 @@ function predictCell(alloys: readonly string[], temperatureC: number, holdMinute
 /**
  * Bins the coupons (already only the viewer's, of exactly these alloys) into the matrix and
  * predicts every cell's heat. `fits` holds each alloy's library fit for the viewer (absent or
- * null: reference data alone).
+ * null: reference data alone). `counted`, when the coupons are a sample of each cell, gives the
+ * cells' full counts and the temperature span of them all.
  */
 export function buildPairMatrix(
   alloys: readonly string[],
   coupons: readonly MatrixCoupon[],
   fits: Readonly<Record<string, GrowthFit | null>> = {},
+  counted?: CellCounts,
 ): PairMatrix {
   const sorted = [...new Set(alloys)].sort();
   const ordered = coupons.map((coupon) => orderLayers(coupon, sorted));
   const heats = ordered.filter((coupon) => coupon.process !== 'anodize');
   const binnable = heats.filter((coupon) => coupon.temperatureC !== null && coupon.holdSeconds !== null);
-  const rows = temperatureRows(
-    sorted,
-    binnable.map((coupon) => coupon.temperatureC!),
-  );
+  const rows = temperatureRows(sorted, [...binnable.map((coupon) => coupon.temperatureC!), ...(counted?.temperaturesC ?? [])]);
 
-  const cells: MatrixCell[] = rows.flatMap((row) => holdColumns.map((column) => ({ row: row.index, column: column.index, coupons: [] as MatrixCoupon[] })));
+  const cells: MatrixCell[] = rows.flatMap((row) =>
+    holdColumns.map((column) => ({ row: row.index, column: column.index, coupons: [] as MatrixCoupon[], count: 0 })),
+  );
   for (const coupon of [...binnable].sort(byHeat)) {
     const row = temperatureRowOf(rows, coupon.temperatureC!);
     cells[row * holdColumns.length + holdColumnOf(coupon.holdSeconds!)].coupons.push(coupon);
   }
+  for (const [index, cell] of cells.entries()) cell.count = Math.max(cell.coupons.length, counted?.perCell.get(index) ?? 0);
 
   const unavailable = sorted.flatMap((alloy) => {
     const reason = heatUnavailableReason(alloy);
