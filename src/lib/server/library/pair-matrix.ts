@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, isNotNull, isNull, lte, max, min, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, isNotNull, isNull, lte, max, min, ne, or, sql, type SQL } from 'drizzle-orm';
 import { coupons } from '../../../../db/schema';
 import { layerKeyOf } from '~/lib/alloys';
 import { buildPairMatrix, holdColumns, temperatureRows, type MatrixCoupon, type PairMatrix, type TemperatureRow } from '~/lib/library/pair-matrix';
@@ -121,16 +121,13 @@ async function cellSamples(binnable: SQL | undefined, rows: readonly Temperature
   return found.map(({ cellIndex: index, cellRank: _rank, cellCount, ...coupon }) => ({ cellIndex: Number(index), cellCount: Number(cellCount), coupon }));
 }
 
-/** Up to LIST_COUPON_LIMIT coupons in an order, and how many match. */
+/** Up to LIST_COUPON_LIMIT coupons in an order, and how many match (a window count, in the same statement). */
 async function listed(where: SQL | undefined, order: SQL[]): Promise<{ rows: MatrixRow[]; total: number }> {
-  const [rows, [{ total }]] = await Promise.all([
-    db()
-      .select(matrixColumns)
-      .from(coupons)
-      .where(where)
-      .orderBy(...order)
-      .limit(LIST_COUPON_LIMIT),
-    db().select({ total: count() }).from(coupons).where(where),
-  ]);
-  return { rows, total };
+  const found = await db()
+    .select({ ...matrixColumns, total: sql<number>`count(*) over ()` })
+    .from(coupons)
+    .where(where)
+    .orderBy(...order)
+    .limit(LIST_COUPON_LIMIT);
+  return { rows: found.map(({ total: _total, ...row }) => row), total: Number(found[0]?.total ?? 0) };
 }
