@@ -43,8 +43,12 @@ export interface RecentLimits {
 /** A layer key naming exactly two alloys ("a+b"). */
 const twoAlloys = sql`${coupons.layerKey} like '%+%' and ${coupons.layerKey} not like '%+%+%'`;
 
-/** A coupon with at least one measured colour on a layer (region means left out). */
-const measured = sql`exists (select 1 from ${swatches} where ${swatches.couponId} = ${coupons.id} and ${swatches.layerId} is not null and ${swatches.isMean} = false)`;
+/**
+ * A coupon with at least one measured colour on a layer (region means left out). A scalar subquery
+ * with a limit, read per coupon on the swatches' coupon index as the walk goes: written as EXISTS,
+ * MariaDB turns it into a semi-join that materialises every measured swatch of the library first.
+ */
+const measured = sql`(select 1 from ${swatches} where ${swatches.couponId} = ${coupons.id} and ${swatches.layerId} is not null and ${swatches.isMean} = false limit 1) is not null`;
 
 /** Coupons read per step of the walk that finds the newest pairs. */
 const WALK_BATCH = 200;
