@@ -1,4 +1,4 @@
-import { eq, getTableColumns, type SQL } from 'drizzle-orm';
+import { getTableColumns, inArray, type SQL } from 'drizzle-orm';
 import { coupons, users } from '../../../../db/schema';
 import { layersOf, withLayers, type CouponRecord } from '~/lib/server/coupons';
 import { db } from '~/lib/server/db';
@@ -9,18 +9,28 @@ export type { CouponRecord };
 export type LibraryRecord = CouponRecord & { dominantLabL: number | null };
 
 /**
- * Coupon records (with owner name and layers) matching a condition, in an order, one query for
- * the coupons and one for their layers. Shapes rows exactly as findCoupon does.
+ * Coupon records (with owner name and layers) matching a condition, in an order: one query for
+ * the coupons, then one for their owners' names and one for their layers. The owners are read
+ * apart so the coupons' query has one table to plan: joined, MariaDB may start from the people
+ * and sort every visible coupon instead of walking the sort column's index to the page's end.
+ * Shapes rows exactly as findCoupon does.
  */
 export async function listCouponRows(where: SQL | undefined, orderBy: SQL[], limit: number, offset = 0): Promise<LibraryRecord[]> {
   const rows = await db()
-    .select({ ...getTableColumns(coupons), ownerName: users.name })
+    .select(getTableColumns(coupons))
     .from(coupons)
-    .innerJoin(users, eq(users.id, coupons.ownerId))
     .where(where)
     .orderBy(...orderBy)
     .limit(limit)
     .offset(offset);
-  const layers = await layersOf(rows.map((row) => row.id));
-  return rows.map((row) => ({ ...withLayers(row, layers.get(row.id)), dominantLabL: row.dominantLabL }));
+  if (rows.length === 0) return [];
+  const [owners, layers] = await Promise.all([
+    db()
+      .select({ id: users.id, name: users.name })
+      .from(users)
+      .where(inArray(users.id, [...new Set(rows.map((row) => row.ownerId))])),
+    layersOf(rows.map((row) => row.id)),
+  ]);
+  const nameOf = new Map(owners.map((owner) => [owner.id, owner.name]));
+  return rows.map((row) => ({ ...withLayers({ ...row, ownerName: nameOf.get(row.ownerId) ?? null }, layers.get(row.id)), dominantLabL: row.dominantLabL }));
 }
