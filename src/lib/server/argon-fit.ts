@@ -2,7 +2,7 @@ import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 import { alloys, coupons, swatches } from '../../../db/schema';
 import { findTintModel, fitArgonFactor, MIN_LIBRARY_COUPONS, type ArgonFactorFit, type GrowthFit } from '~/lib/tint';
 import { db } from './db';
-import { observationsFromSwatches } from './tint-fit';
+import { observationsFromSwatches, swatchRowColumns } from './tint-fit';
 import { visibleCoupons, type Viewer } from './visibility';
 
 /**
@@ -18,20 +18,7 @@ export async function argonFactorFit(slug: string, viewer: Viewer, airFit: Growt
   const model = findTintModel(slug);
   if (!model?.optics || !model.heat) return null;
   const rows = await db()
-    .select({
-      couponId: swatches.couponId,
-      photoId: swatches.photoId,
-      layerId: swatches.layerId,
-      isMean: swatches.isMean,
-      share: swatches.share,
-      l: swatches.labL,
-      a: swatches.labA,
-      b: swatches.labB,
-      process: coupons.process,
-      temperatureC: coupons.temperatureC,
-      holdSeconds: coupons.holdSeconds,
-      volts: coupons.volts,
-    })
+    .select(swatchRowColumns)
     .from(swatches)
     .innerJoin(coupons, eq(coupons.id, swatches.couponId))
     .innerJoin(alloys, eq(alloys.id, swatches.alloyId))

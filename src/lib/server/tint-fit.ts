@@ -104,23 +104,26 @@ export function observationsFromSwatches(rows: readonly SwatchRow[]): CouponObse
   return observations;
 }
 
+/** The columns of a swatch and its coupon's heat record that a fit observes (see SwatchRow). */
+export const swatchRowColumns = {
+  couponId: swatches.couponId,
+  photoId: swatches.photoId,
+  layerId: swatches.layerId,
+  isMean: swatches.isMean,
+  share: swatches.share,
+  l: swatches.labL,
+  a: swatches.labA,
+  b: swatches.labB,
+  process: coupons.process,
+  temperatureC: coupons.temperatureC,
+  holdSeconds: coupons.holdSeconds,
+  volts: coupons.volts,
+};
+
 /** The observations a fit of the alloy needs, from the coupons the viewer may see. */
 export async function loadObservations(slug: string, viewer: Viewer): Promise<CouponObservation[]> {
   const rows = await db()
-    .select({
-      couponId: swatches.couponId,
-      photoId: swatches.photoId,
-      layerId: swatches.layerId,
-      isMean: swatches.isMean,
-      share: swatches.share,
-      l: swatches.labL,
-      a: swatches.labA,
-      b: swatches.labB,
-      process: coupons.process,
-      temperatureC: coupons.temperatureC,
-      holdSeconds: coupons.holdSeconds,
-      volts: coupons.volts,
-    })
+    .select(swatchRowColumns)
     .from(swatches)
     .innerJoin(coupons, eq(coupons.id, swatches.couponId))
     .innerJoin(alloys, eq(alloys.id, swatches.alloyId))
