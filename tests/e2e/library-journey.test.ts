@@ -1,8 +1,8 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
 import { differenceCiede2000, parse } from 'culori';
-import { and, desc, eq, inArray } from 'drizzle-orm';
-import { coupons } from '../../db/schema';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { coupons, swatches } from '../../db/schema';
 import { baseUrl } from '../support/app';
 import { keepScreenshotOnFailure, useBrowser } from '../support/browser';
 import { testDatabase } from '../support/database';
@@ -319,11 +319,19 @@ describe('swatch chips carry their hex as text', () => {
   it('on the front page, the swatch grid, one alloy’s matrix and a demo coupon’s page', { timeout: 120_000 }, async () => {
     await browser().clearCookies();
     const page = await newPage(widths[1]);
+    // A demo coupon with measured swatches (the demo's rows come first; other test files add
+    // coupons of this pair without photos while this runs).
     const [newest] = await db
       .select({ id: coupons.id })
       .from(coupons)
-      .where(and(eq(coupons.layerKey, PAIR_KEY), eq(coupons.visibility, 'public')))
-      .orderBy(desc(coupons.id))
+      .where(
+        and(
+          eq(coupons.layerKey, PAIR_KEY),
+          eq(coupons.visibility, 'public'),
+          sql`exists (select 1 from ${swatches} where ${swatches.couponId} = ${coupons.id})`,
+        ),
+      )
+      .orderBy(asc(coupons.id))
       .limit(1);
     // The front page's recent swatches (its opening ladder strip is a captioned illustration, not chips).
     await page.goto(`${baseUrl}/`, { waitUntil: 'networkidle' });
