@@ -7,7 +7,8 @@ import { csrfToken } from '../support/auth';
 const unique = () => `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 7)}`;
 const newAddress = () => `limits-${unique()}@oxbloom.test`;
 const wrong = 'wrong password here';
-const addressFor = (attempt: number) => `198.51.100.${150 + Math.floor(Math.random() * 50) + attempt}`;
+// 198.51.100.200–254: a block no other test file signs in from (accounts.test.ts exhausts one of 100–199).
+const addressFor = (attempt: number) => `198.51.100.${200 + Math.floor(Math.random() * 40) + attempt}`;
 
 /** Posts a raw body to an Auth.js route with a fresh CSRF token, as another client each time. */
 async function postRaw(path: string, contentType: string, body: (token: string) => string, from: string) {
