@@ -131,12 +131,11 @@ const resultRows = (page: Page, width: Width): Locator =>
 async function compareTwo(page: Page, width: Width): Promise<number[]> {
   const withSwatches = resultRows(page, width).filter({ has: page.locator('a[href^="/library/search"]') });
   expect(await withSwatches.count()).toBeGreaterThanOrEqual(2);
-  const ids: number[] = [];
-  for (const index of [0, 1]) {
-    const box = withSwatches.nth(index).getByRole('checkbox', { name: /^Compare / });
-    await box.check();
-    ids.push(Number(await box.getAttribute('value')));
-  }
+  // The two oldest rows with swatches: the demo's, which no other test file changes while this runs.
+  const boxes = withSwatches.getByRole('checkbox', { name: /^Compare / });
+  const values = (await boxes.evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)))).sort((a, b) => a - b);
+  const ids = values.slice(0, 2);
+  for (const id of ids) await boxes.and(page.locator(`[value="${id}"]`)).check();
   const button = page.getByRole('button', { name: /Compare selected/ });
   await expect.poll(() => button.textContent()).toBe('Compare selected (2)');
   await Promise.all([page.waitForURL(/\/compare\?/), button.click()]);
