@@ -184,6 +184,6 @@ export type ModelPart = 'optics' | 'heat' | 'anodize';
 /** Why a model cannot answer a question, or null when it can. */
 export function missingModelReason(model: TintModel, part: ModelPart): string | null {
   if (model[part]) return null;
-  const what = { optics: 'an optical film model', heat: 'heat-growth kinetics', anodize: 'an anodizing growth rate' }[part];
+  const what = { optics: 'optical film model', heat: 'heat-growth kinetics', anodize: 'anodizing growth rate' }[part];
   return `${model.alloy.name} has no ${what} yet: library data only.`;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { findTintModel } from '~/lib/tint/models';
+import { findTintModel, missingModelReason } from '~/lib/tint/models';
 import { ModelUnavailableError, NoPredictionError, predictTint } from '~/lib/tint/predict';
 
 const model = (slug: string) => findTintModel(slug)!;
@@ -38,6 +38,13 @@ describe('prediction for a planned heat', () => {
 
   it('zirconium has optics but no heat kinetics: library data only for a heat', () => {
     expect(() => heat('zirconium-702', 500)).toThrow(/library data only/);
+  });
+
+  it('names the missing part of a model in a plain sentence', () => {
+    const zirconium = model('zirconium-702');
+    expect(missingModelReason({ ...zirconium, optics: null }, 'optics')).toBe(`${zirconium.alloy.name} has no optical film model yet: library data only.`);
+    expect(missingModelReason(zirconium, 'heat')).toBe(`${zirconium.alloy.name} has no heat-growth kinetics yet: library data only.`);
+    expect(missingModelReason(model('ti-grade-2'), 'heat')).toBeNull();
   });
 });
 
