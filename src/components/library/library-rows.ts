@@ -1,18 +1,9 @@
 import { callApi } from '~/components/api-client';
 
 /** One coupon as the library shows it: what the table, the cards and the swatch grid need, nothing more. */
-export interface LibraryRow {
-  id: number;
-  title: string;
-  process: string;
-  temperatureC: number | null;
-  holdSeconds: number | null;
-  volts: number | null;
-  atmosphere: string;
-  ownerName: string | null;
+export interface LibraryRow extends Omit<ListedCoupon, 'createdAt' | 'dominantSwatches'> {
   /** The day it was logged, YYYY-MM-DD (UTC). */
   loggedOn: string;
-  layers: { position: number; alloy: string; alloyName: string }[];
   /** Each layer's dominant measured swatch; layers without photos have none. */
   swatches: { position: number; alloy: string; hex: string }[];
 }
