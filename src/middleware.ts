@@ -1,5 +1,4 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
-import { getSession } from 'auth-astro/server';
 import { PASSWORD_MAX_LENGTH, emailSchema } from './lib/account';
 import { allowedMethods, asJsonError, errorMessage, needsJson } from './lib/server/api-errors';
 import { authRoute, isAuthPath, isPlainForm, isSignInAttempt, signInFields } from './lib/server/auth-routes';
@@ -8,8 +7,10 @@ import { config } from './lib/server/config';
 import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
+import { BoundedCache, cachedBody, sendCached, type CachedBody } from './lib/server/http-cache';
 import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { securityHeaders } from './lib/server/security-headers';
+import { sessionUserOf } from './lib/server/session';
 import { startUploadSweeper } from './lib/server/photos/uploads-ledger';
 
 // A missing or malformed setting stops the server before it answers anyone, naming the setting.
@@ -59,16 +60,38 @@ function refuseSignIn(request: Request, code: string, json: Response): Response 
   return new Response(null, { status: 303, headers: { location: `${location.pathname}${location.search}` } });
 }
 
-/** Reads the session once per request; `locals.user` is null when signed out. */
+/**
+ * Reads the session once per request into `locals.user` (null when signed out). A request without
+ * a session cookie is a visitor's at once; one with a cookie costs one decryption and one
+ * primary-key read (lib/server/session.ts), not a run through Auth.js.
+ */
 const loadSession = defineMiddleware(async (context, next) => {
   context.locals.user = null;
   if (context.url.pathname.startsWith('/api/auth/') || context.url.pathname.startsWith('/_astro/')) return next();
-  const session = await getSession(context.request).catch(() => null);
-  const user = session?.user;
-  if (user?.id && user.email) {
-    context.locals.user = { id: user.id, name: user.name ?? null, email: user.email, role: user.role };
-  }
+  context.locals.user = await sessionUserOf(context.request, context.url, context.cookies).catch(() => null);
   return next();
+});
+
+/**
+ * Pages that are a pure function of their address for a visitor (the same HTML for everyone signed
+ * out): rendered once per process and address, and sent with an ETag, so a repeat visit costs a
+ * 304. Signed-in people get the page rendered for them, never kept by a cache (`secureHeaders`).
+ */
+const VISITOR_PAGES = new Set(['/tint-ladder']);
+const VISITOR_PAGE_CACHE_CONTROL = 'public, no-cache';
+const visitorPages = new BoundedCache<string, CachedBody>(128);
+
+const cacheVisitorPages = defineMiddleware(async (context, next) => {
+  const { request, url } = context;
+  if (context.locals.user || request.method !== 'GET' || !VISITOR_PAGES.has(url.pathname)) return next();
+  const key = `${url.pathname}${url.search}`;
+  const known = visitorPages.get(key);
+  if (known) return sendCached(request, known, VISITOR_PAGE_CACHE_CONTROL, { vary: 'cookie' });
+  const response = await next();
+  if (response.status !== 200 || response.headers.has('set-cookie')) return response;
+  const page = cachedBody(await response.text(), response.headers.get('content-type') ?? 'text/html');
+  visitorPages.set(key, page);
+  return sendCached(request, page, VISITOR_PAGE_CACHE_CONTROL, { vary: 'cookie' });
 });
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -143,4 +166,4 @@ const startTimers = defineMiddleware((_context, next) => {
   return next();
 });
 
-export const onRequest = sequence(startTimers, secureHeaders, jsonErrors, checkOrigin, limitBodies, limitSignIn, loadSession);
+export const onRequest = sequence(startTimers, secureHeaders, jsonErrors, checkOrigin, limitBodies, limitSignIn, loadSession, cacheVisitorPages);

@@ -41,6 +41,13 @@ const adminOnly = (status: number): Record<Who, number> => ({ visitor: 401, memb
 export const matrix: Row[] = [
   { route: 'health', method: 'GET', path: '/api/health', expect: all(200) },
   { route: 'alloy catalogue', method: 'GET', path: '/api/alloys', expect: all(200) },
+  { route: 'tint ladder from the query', method: 'GET', path: '/api/tint/ladder?alloy=ti-grade-5', expect: all(200) },
+  {
+    route: 'tint prediction from the query',
+    method: 'GET',
+    path: '/api/tint/predict?alloy=ti-grade-5&process=heat&temperatureC=400&holdMinutes=30',
+    expect: all(200),
+  },
   { route: 'sign-up, invalid', method: 'POST', path: '/api/account/sign-up', json: { email: 'nope' }, expect: all(400) },
   { route: 'forgot password, invalid', method: 'POST', path: '/api/account/forgot-password', json: { email: 'nope' }, expect: all(400) },
   {

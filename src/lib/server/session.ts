@@ -4,8 +4,10 @@ import type { AstroCookies } from 'astro';
 import { and, count, eq, gt, lt, sql } from 'drizzle-orm';
 import { sessions, users } from '../../../db/schema';
 import type { RoleName } from '~/lib/account';
+import type { SessionUser } from './authorise';
 import { config } from './config';
 import { db } from './db';
+import { BoundedCache } from './http-cache';
 
 /** How long a sign-in lasts (Auth.js session.maxAge uses the same). */
 export const SESSION_MAX_AGE_SECONDS = 7 * 24 * 3600;
@@ -105,4 +107,66 @@ export async function endSession(cookies: AstroCookies, url: URL) {
   const sid = await sessionIdOf(cookies, url);
   if (sid) await closeSession(sid);
   cookies.delete(sessionCookieName(url), { path: '/' });
+}
+
+/**
+ * The name Auth.js gives its session cookie for this request: it takes https from
+ * X-Forwarded-Proto when there is one, else from the request's own address.
+ */
+export function authSessionCookieName(request: Request, url: URL): string {
+  const forwarded = request.headers.get('x-forwarded-proto');
+  const https = forwarded ? forwarded.trim().toLowerCase() === 'https' : url.protocol === 'https:';
+  return https ? '__Secure-authjs.session-token' : 'authjs.session-token';
+}
+
+/** The session cookie's value, joined again when Auth.js split a long one into `name.0`, `name.1`, … */
+function sessionCookieValue(cookies: AstroCookies, name: string): string | undefined {
+  const whole = cookies.get(name)?.value;
+  if (whole) return whole;
+  const chunks: string[] = [];
+  for (let index = 0; cookies.has(`${name}.${index}`); index += 1) chunks.push(cookies.get(`${name}.${index}`)!.value);
+  return chunks.length ? chunks.join('') : undefined;
+}
+
+interface SessionClaims {
+  sub: string;
+  sid: string;
+  /** Seconds since the epoch. */
+  exp: number;
+}
+
+/**
+ * Decoded cookies, by their exact text: decrypting a token (a key derivation and an AES-CBC +
+ * HMAC check) gives the same claims every time, so a browser's later requests skip it. Only tokens
+ * that decrypted are kept, and their expiry is checked again on every use.
+ */
+const decodedTokens = new BoundedCache<string, SessionClaims>(1024);
+
+async function claimsOf(token: string, salt: string): Promise<SessionClaims | undefined> {
+  const key = `${salt}\n${token}`;
+  let claims = decodedTokens.get(key);
+  if (!claims) {
+    const payload = await decode({ token, secret: secret(), salt }).catch(() => null);
+    if (!payload || typeof payload.sub !== 'string' || typeof payload.sid !== 'string' || typeof payload.exp !== 'number') return undefined;
+    claims = { sub: payload.sub, sid: payload.sid, exp: payload.exp };
+    decodedTokens.set(key, claims);
+  }
+  return claims.exp * 1000 > Date.now() ? claims : undefined;
+}
+
+/**
+ * The signed-in person a request's session cookie names, or null: no cookie costs nothing; a cookie
+ * costs one decryption (the first time it is seen) and one primary-key read of its live session,
+ * joined to the person's row, the same checks Auth.js's jwt callback makes (src/auth.config.ts).
+ * A forged, altered, expired or ended session's cookie is a visitor's.
+ */
+export async function sessionUserOf(request: Request, url: URL, cookies: AstroCookies): Promise<SessionUser | null> {
+  const name = authSessionCookieName(request, url);
+  const token = sessionCookieValue(cookies, name);
+  if (!token) return null;
+  const claims = await claimsOf(token, name);
+  if (!claims) return null;
+  const live = await findLiveSession(claims.sid);
+  if (!live || live.userId !== claims.sub) return null;
+  return { id: live.userId, name: live.name, email: live.email, role: live.role };
 }
