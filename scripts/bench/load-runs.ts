@@ -101,19 +101,29 @@ export interface UploadResult {
  * to the storage URL, POST /api/coupons/:id/photos (decode, measure, store derived files).
  */
 export async function uploadBurst(baseUrl: string, jobs: { cookie: string; couponId: number; bytes: Buffer }[]): Promise<UploadResult> {
+  const step = <T>(what: string, work: Promise<T>) =>
+    work.catch((error: unknown) => {
+      throw new Error(`${what}: ${describeError(error)}`);
+    });
   const one = async (job: (typeof jobs)[number], index: number) => {
     const start = performance.now();
     const headers = { origin: baseUrl, cookie: job.cookie, 'content-type': 'application/json' };
-    const ticketResponse = await fetch(new URL('/api/uploads', baseUrl), {
-      method: 'POST',
-      headers,
-      body: JSON.stringify({ filename: `coupon-${index}.jpg`, contentType: 'image/jpeg', size: job.bytes.length }),
-    });
+    const ticketResponse = await step(
+      'presign',
+      fetch(new URL('/api/uploads', baseUrl), {
+        method: 'POST',
+        headers,
+        body: JSON.stringify({ filename: `coupon-${index}.jpg`, contentType: 'image/jpeg', size: job.bytes.length }),
+      }),
+    );
     if (ticketResponse.status !== 201) throw new Error(`presign answered ${ticketResponse.status}: ${await ticketResponse.text()}`);
     const ticket = (await ticketResponse.json()) as { key: string; url: string; headers: Record<string, string> };
-    const put = await fetch(ticket.url, { method: 'PUT', headers: ticket.headers, body: new Uint8Array(job.bytes) });
+    const put = await step('storage PUT', fetch(ticket.url, { method: 'PUT', headers: ticket.headers, body: new Uint8Array(job.bytes) }));
     if (put.status !== 200) throw new Error(`storage answered ${put.status}`);
-    const attach = await fetch(new URL(`/api/coupons/${job.couponId}/photos`, baseUrl), { method: 'POST', headers, body: JSON.stringify({ key: ticket.key }) });
+    const attach = await step(
+      'attach',
+      fetch(new URL(`/api/coupons/${job.couponId}/photos`, baseUrl), { method: 'POST', headers, body: JSON.stringify({ key: ticket.key }) }),
+    );
     if (attach.status !== 201) throw new Error(`attach answered ${attach.status}: ${await attach.text()}`);
     return performance.now() - start;
   };
@@ -121,7 +131,14 @@ export async function uploadBurst(baseUrl: string, jobs: { cookie: string; coupo
   const settled = await Promise.allSettled(jobs.map(one));
   const seconds = (performance.now() - start) / 1000;
   const times = settled.flatMap((outcome) => (outcome.status === 'fulfilled' ? [outcome.value] : []));
-  for (const outcome of settled) if (outcome.status === 'rejected') console.log(`  upload failed: ${String(outcome.reason)}`);
+  for (const outcome of settled) if (outcome.status === 'rejected') console.log(`  upload failed: ${describeError(outcome.reason)}`);
   const timing = summarise(times.length ? times : [0]);
   return { count: jobs.length, errors: jobs.length - times.length, seconds, p50: timing.median, p95: timing.p95, max: timing.max };
+}
+
+/** An error with its cause (fetch names the real reason, such as a reset connection, only there). */
+function describeError(error: unknown): string {
+  if (!(error instanceof Error)) return String(error);
+  const cause = error.cause instanceof Error ? ` (${error.cause.message})` : '';
+  return `${error.message}${cause}`;
 }
