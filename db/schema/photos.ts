@@ -1,3 +1,4 @@
+import { sql } from 'drizzle-orm';
 import { bigint, boolean, char, double, index, int, mysqlEnum, mysqlTable, smallint, timestamp, varchar } from 'drizzle-orm/mysql-core';
 import { timestamps } from './columns';
 import { users } from './users';
@@ -101,13 +102,19 @@ export const swatches = mysqlTable(
     oklabL: double('oklab_l').notNull(),
     oklabA: double('oklab_a').notNull(),
     oklabB: double('oklab_b').notNull(),
+    /**
+     * The swatch's cell in CIELAB for colour search: L* and a* in steps of LAB_CELL (library/colour-box.ts),
+     * so the colour index can be read as ranges of b* in a block of cells around the colour.
+     */
+    labLCell: int('lab_l_cell').generatedAlwaysAs(sql`floor(\`lab_l\` / 2)`, { mode: 'stored' }),
+    labACell: int('lab_a_cell').generatedAlwaysAs(sql`floor(\`lab_a\` / 4)`, { mode: 'stored' }),
     createdAt: timestamps.createdAt,
   },
   (table) => [
     index('swatches_region_idx').on(table.regionId),
     index('swatches_coupon_idx').on(table.couponId),
-    index('swatches_alloy_colour_idx').on(table.alloyId, table.labL, table.labA, table.labB),
-    // Colour search with no alloy: a range on L* with a*, b* checked from the index.
-    index('swatches_colour_idx').on(table.labL, table.labA, table.labB),
+    // Colour search (library/colour-search.ts): covering, so the nearest swatches are found from the index alone.
+    index('swatches_colour_cell_idx').on(table.isMean, table.labLCell, table.labACell, table.labB, table.labL, table.labA),
+    index('swatches_alloy_colour_cell_idx').on(table.alloyId, table.isMean, table.labLCell, table.labACell, table.labB, table.labL, table.labA),
   ],
 );

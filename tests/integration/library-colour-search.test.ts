@@ -162,6 +162,9 @@ describe('GET /api/swatches/search', () => {
     ['admin', 10, 100],
     ['admin', 6, 7],
     ['member', 10, 1],
+    // One or a few hits, so the nearest swatches of private coupons must be passed over batch by batch.
+    ['visitor', 10, 1],
+    ['member2', 4, 3],
   ] as const)('%s within ΔE00 %d, at most %d hits: the brute-force scan’s hits in its order', async (who, maxDeltaE, limit) => {
     const expected = await bruteForce(who, maxDeltaE, limit);
     expect(expected.length, 'the fixture has colours within the limit').toBeGreaterThan(0);

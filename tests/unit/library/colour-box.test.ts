@@ -1,6 +1,6 @@
 import { differenceCiede2000 } from 'culori';
 import { describe, expect, it } from 'vitest';
-import { deltaE00Box, insideBox, MAX_BOXED_DELTA_E } from '~/lib/library/colour-box';
+import { boxCells, deltaE00Box, insideBox, LAB_CELL, MAX_BOXED_DELTA_E } from '~/lib/library/colour-box';
 import { seededRandom } from '~/lib/random';
 
 // An independent CIEDE2000: culori's (kL = kC = kH = 1), itself checked against Sharma, Wu &
@@ -75,5 +75,74 @@ describe('deltaE00Box', () => {
   it('gives no box for limits beyond its derivation, and none for nonsense', () => {
     expect(deltaE00Box({ l: 50, a: 0, b: 0 }, MAX_BOXED_DELTA_E + 1)).toBeNull();
     expect(deltaE00Box({ l: 50, a: 0, b: 0 }, Number.NaN)).toBeNull();
+  });
+
+  it('holds where its hue and chroma bounds bite: centres all round the hue circle, low to high chroma', () => {
+    // Sample inside a cube as wide as the cross term's worst case allows (the box with RT = √3,
+    // from the derivation's first bound), so colours the tighter box leaves out are tested too.
+    const random = seededRandom(99);
+    let inside = 0;
+    for (let trial = 0; trial < 400; trial += 1) {
+      const t = [1, 3, 6, 10][trial % 4];
+      const hue = random() * 2 * Math.PI;
+      const chroma = [0.3, 5, 20, 45, 80][trial % 5] * (0.8 + 0.4 * random());
+      const centre = { l: 20 + random() * 70, a: chroma * Math.cos(hue), b: chroma * Math.sin(hue) };
+      const box = deltaE00Box(centre, t)!;
+      const k = 1 + Math.sqrt(3);
+      const worst = (k * t * (1 + 0.045 * Math.hypot(1.5 * centre.a, centre.b))) / (1 - 0.0225 * k * t);
+      const dL = box.l[1] - centre.l;
+      for (let sample = 0; sample < 400; sample += 1) {
+        const other = {
+          l: centre.l + (random() - 0.5) * 2 * dL * 1.2,
+          a: centre.a + (random() - 0.5) * 2 * Math.min(worst, 3 * t + 40),
+          b: centre.b + (random() - 0.5) * 2 * Math.min(worst, 3 * t + 40),
+        };
+        const difference = dE(centre, other);
+        if (difference <= t) {
+          inside += 1;
+          expect(insideBox(box, other), `${JSON.stringify(centre)} → ${JSON.stringify(other)}: ΔE00 ${difference} ≤ ${t}`).toBe(true);
+        }
+      }
+    }
+    expect(inside).toBeGreaterThan(2_000);
+  });
+
+  it('is tighter than the worst case of the cross term away from blue and near grey', () => {
+    const k = 1 + Math.sqrt(3);
+    const worstCase = (centre: { a: number; b: number }, t: number) => (k * t * (1 + 0.045 * Math.hypot(1.5 * centre.a, centre.b))) / (1 - 0.0225 * k * t);
+    // Straw (h ≈ 85°): the mean hue stays within 90° of it, where Δθ = 30°·exp(−(100/25)²) ≈ 0, so the
+    // bound is the one with no cross term: t·(1 + 0.045·C1')/(1 − 0.0225·t), to a hair.
+    const straw = { l: 68, a: 5, b: 60 };
+    const noCrossTerm = (5 * (1 + 0.045 * Math.hypot(7.5, 60))) / (1 - 0.0225 * 5);
+    expect(deltaE00Box(straw, 5)!.a[1] - straw.a).toBeCloseTo(noCrossTerm, 3);
+    expect(noCrossTerm).toBeLessThan(worstCase(straw, 5) / 3);
+    // Grey: RC is small while the mean chroma stays low.
+    const grey = { l: 57, a: 0, b: 0 };
+    expect(deltaE00Box(grey, 10)!.a[1]).toBeLessThan(worstCase(grey, 10) / 4);
+    // Saturated blue near 275°: the cross term can be at its worst, and the box stays as wide.
+    const blue = { l: 40, a: 5, b: -45 };
+    expect(deltaE00Box(blue, 2)!.a[1] - blue.a).toBeGreaterThan(0.9 * worstCase(blue, 2));
+  });
+});
+
+describe('boxCells', () => {
+  it('names the cell of every colour inside the box, as the database computes floor(L*/2) and floor(a*/4)', () => {
+    const random = seededRandom(5);
+    for (let trial = 0; trial < 100; trial += 1) {
+      const box = deltaE00Box({ l: random() * 100, a: (random() - 0.5) * 200, b: (random() - 0.5) * 200 }, 0.2 + random() * 9)!;
+      const cells = boxCells(box);
+      expect(cells.l).toEqual([...cells.l].sort((x, y) => x - y));
+      for (let sample = 0; sample < 20; sample += 1) {
+        const l = box.l[0] + random() * (box.l[1] - box.l[0]);
+        const a = box.a[0] + random() * (box.a[1] - box.a[0]);
+        expect(cells.l).toContain(Math.floor(l / LAB_CELL.l));
+        expect(cells.a).toContain(Math.floor(a / LAB_CELL.a));
+      }
+      // The edges themselves, and no cell beyond them.
+      expect(cells.l[0]).toBe(Math.floor(box.l[0] / 2));
+      expect(cells.l.at(-1)).toBe(Math.floor(box.l[1] / 2));
+      expect(cells.a[0]).toBe(Math.floor(box.a[0] / 4));
+      expect(cells.a.at(-1)).toBe(Math.floor(box.a[1] / 4));
+    }
   });
 });

@@ -1,8 +1,8 @@
-import { and, between, eq, sql } from 'drizzle-orm';
+import { and, between, eq, inArray } from 'drizzle-orm';
 import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
-import { deltaE00Box } from '~/lib/library/colour-box';
+import { boxCells, deltaE00Box, MAX_CELL_RANGES } from '~/lib/library/colour-box';
 import type { ColourSearch } from '~/lib/library/colour-search';
-import { deltaE2000 } from '~/lib/colour';
+import { deltaE2000, type Lab } from '~/lib/colour';
 import type { SessionUser } from '~/lib/server/authorise';
 import { visibleCoupons } from '~/lib/server/visibility';
 import { db } from '~/lib/server/db';
@@ -12,7 +12,9 @@ type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 export interface SwatchHit {
   swatchId: number;
   hex: string;
+  /** The stored CIELAB of the swatch (its measured colour; `hex` is that colour rounded to sRGB). */
   lab: { l: number; a: number; b: number };
+  /** ΔE00 between the searched colour and the swatch's stored CIELAB (not its rounded hex). */
   deltaE00: number;
   couponId: number;
   /** The layer's position in the coupon (0 = first), null when the whole photo was measured. */
@@ -29,21 +31,101 @@ export interface SwatchHit {
   };
 }
 
+/** The first ΔE00 radius searched; each further round doubles it, up to the asked limit. */
+const FIRST_RADIUS = 1.5;
+
+/** A swatch found near the colour, before anyone's visibility is applied. */
+interface Candidate {
+  id: number;
+  lab: Lab;
+  deltaE00: number;
+}
+
+type Details = Omit<SwatchHit, 'lab' | 'deltaE00'>;
+
 /**
  * Measured swatches (ranked clusters; a region's mean is left out, being no colour on the metal
- * itself) of coupons the viewer may see, within `maxDeltaE` ΔE00 of the colour, nearest first.
- * The database narrows by a CIELAB box that provably holds every such colour (deltaE00Box), using
- * the index on (L*, a*, b*), or on (alloy, L*, a*, b*) with an alloy; exact ΔE00 decides the rest.
+ * itself) of coupons the viewer may see, within `maxDeltaE` ΔE00 of the colour, nearest first
+ * (ties by swatch id), at most `limit`.
+ *
+ * In rounds of growing radius r (FIRST_RADIUS, doubling, up to maxDeltaE):
+ * 1. nearbySwatches reads id and CIELAB of every measured swatch in the CIELAB box that provably
+ *    holds all colours within r (deltaE00Box) from the covering colour index alone, as one range
+ *    of b* per colour cell; exact ΔE00 keeps those within r, nearest first.
+ * 2. visibleDetails then asks, in batches down that order, which of them belong to coupons the viewer
+ *    may see (visibleCoupons, in SQL), with their coupons' records, until `limit` are found.
+ * Every swatch within r has been seen, so `limit` visible hits within r are the nearest of all; with
+ * fewer, the next round looks further. Visibility already asked is kept between rounds.
  */
 export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promise<SwatchHit[]> {
-  const box = deltaE00Box(query.lab, query.maxDeltaE)!;
+  let alloyId: number | null = null;
+  if (query.alloy) {
+    const [alloy] = await db().select({ id: alloys.id }).from(alloys).where(eq(alloys.slug, query.alloy));
+    if (!alloy) return [];
+    alloyId = alloy.id;
+  }
+  const known = new Map<number, Details | null>();
+  for (let radius = Math.min(FIRST_RADIUS, query.maxDeltaE); ; radius = Math.min(radius * 2, query.maxDeltaE)) {
+    const candidates = await nearbySwatches(query.lab, radius, alloyId);
+    const hits: SwatchHit[] = [];
+    let batch = query.limit * 2 + 10;
+    for (let next = 0; next < candidates.length && hits.length < query.limit; next += 1) {
+      const candidate = candidates[next];
+      if (!known.has(candidate.id)) {
+        const unknown = candidates
+          .slice(next)
+          .filter((other) => !known.has(other.id))
+          .slice(0, batch);
+        for (const id of unknown.map((other) => other.id)) known.set(id, null);
+        for (const found of await visibleDetails(
+          viewer,
+          unknown.map((other) => other.id),
+        ))
+          known.set(found.swatchId, found);
+        batch *= 2;
+      }
+      const details = known.get(candidate.id);
+      if (details) hits.push({ ...details, lab: candidate.lab, deltaE00: Math.round(candidate.deltaE00 * 1000) / 1000 });
+    }
+    if (hits.length >= query.limit || radius >= query.maxDeltaE) return hits;
+  }
+}
+
+/** Measured swatches (of the alloy, when given) within ΔE00 `radius` of the colour, nearest first, read from the colour index alone. */
+async function nearbySwatches(centre: Lab, radius: number, alloyId: number | null): Promise<Candidate[]> {
+  const box = deltaE00Box(centre, radius)!;
+  const cells = boxCells(box);
+  const perCell = cells.l.length * cells.a.length <= MAX_CELL_RANGES;
+  const rows = await db()
+    .select({ id: swatches.id, l: swatches.labL, a: swatches.labA, b: swatches.labB })
+    .from(swatches, { forceIndex: alloyId === null ? 'swatches_colour_cell_idx' : 'swatches_alloy_colour_cell_idx' })
+    .where(
+      and(
+        alloyId === null ? undefined : eq(swatches.alloyId, alloyId),
+        eq(swatches.isMean, false),
+        inArray(swatches.labLCell, cells.l),
+        perCell ? inArray(swatches.labACell, cells.a) : between(swatches.labACell, cells.a[0], cells.a.at(-1)!),
+        between(swatches.labB, box.b[0], box.b[1]),
+        between(swatches.labL, box.l[0], box.l[1]),
+        between(swatches.labA, box.a[0], box.a[1]),
+      ),
+    );
+  const candidates: Candidate[] = [];
+  for (const row of rows) {
+    const lab = { l: row.l, a: row.a, b: row.b };
+    const deltaE00 = deltaE2000(centre, lab);
+    if (deltaE00 <= radius) candidates.push({ id: row.id, lab, deltaE00 });
+  }
+  return candidates.sort((first, second) => first.deltaE00 - second.deltaE00 || first.id - second.id);
+}
+
+/** Of these swatches, those of coupons the viewer may see, with their coupons' records. */
+async function visibleDetails(viewer: Viewer, ids: number[]): Promise<Details[]> {
+  if (ids.length === 0) return [];
   const rows = await db()
     .select({
       swatchId: swatches.id,
       hex: swatches.hex,
-      l: swatches.labL,
-      a: swatches.labA,
-      b: swatches.labB,
       couponId: swatches.couponId,
       layer: couponLayers.position,
       alloy: alloys.slug,
@@ -59,37 +141,9 @@ export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promi
     .innerJoin(coupons, eq(coupons.id, swatches.couponId))
     .leftJoin(couponLayers, eq(couponLayers.id, swatches.layerId))
     .leftJoin(alloys, eq(alloys.id, swatches.alloyId))
-    .where(
-      and(
-        visibleCoupons(viewer),
-        eq(swatches.isMean, false),
-        query.alloy ? sql`${swatches.alloyId} = (select ${alloys.id} from ${alloys} where ${alloys.slug} = ${query.alloy})` : undefined,
-        between(swatches.labL, box.l[0], box.l[1]),
-        between(swatches.labA, box.a[0], box.a[1]),
-        between(swatches.labB, box.b[0], box.b[1]),
-      ),
-    );
-  return rows
-    .map((row) => ({ row, deltaE00: deltaE2000(query.lab, { l: row.l, a: row.a, b: row.b }) }))
-    .filter(({ deltaE00 }) => deltaE00 <= query.maxDeltaE)
-    .sort((first, second) => first.deltaE00 - second.deltaE00 || first.row.swatchId - second.row.swatchId)
-    .slice(0, query.limit)
-    .map(({ row, deltaE00 }) => ({
-      swatchId: row.swatchId,
-      hex: row.hex,
-      lab: { l: row.l, a: row.a, b: row.b },
-      deltaE00: Math.round(deltaE00 * 1000) / 1000,
-      couponId: row.couponId,
-      layer: row.layer,
-      alloy: row.alloy,
-      coupon: {
-        title: row.title,
-        layerKey: row.layerKey,
-        process: row.process,
-        temperatureC: row.temperatureC,
-        holdSeconds: row.holdSeconds,
-        volts: row.volts,
-        atmosphere: row.atmosphere,
-      },
-    }));
+    .where(and(inArray(swatches.id, ids), visibleCoupons(viewer)));
+  return rows.map(({ title, layerKey, process, temperatureC, holdSeconds, volts, atmosphere, ...swatch }) => ({
+    ...swatch,
+    coupon: { title, layerKey, process, temperatureC, holdSeconds, volts, atmosphere },
+  }));
 }
