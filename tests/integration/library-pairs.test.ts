@@ -4,6 +4,7 @@ import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
+import { bumpLibraryVersions } from '~/lib/server/library-versions';
 
 /**
  * The heat matrix of an alloy pair (GET /api/library/pairs/{a}+{b}, /library/pairs/…) and of one
@@ -320,6 +321,38 @@ describe('GET /api/library/alloys/{a}', () => {
     const body = (await response.json()) as { error: string; field: string };
     expect(body.field).toBe('alloy');
     expect(body.error).toMatch(message);
+  });
+});
+
+describe('the model’s bands in the matrix', () => {
+  // W2 tool steel: modelled for heats, one demo coupon, and no other test file writes it.
+  const ALLOY = 'steel-w2';
+  type Predicted = { layers: { alloy: string; basis: string; couponCount: number; hex: string }[] }[];
+  const bands = async () => (await matrix('member', `/api/library/alloys/${ALLOY}`)).predicted as Predicted;
+  const couponsFitted = (predicted: Predicted) => predicted.flatMap((cell) => cell.layers).find((layer) => layer.alloy === ALLOY)!.couponCount;
+
+  it('are predicted afresh once a write bumps the alloy’s library version, and only then', async () => {
+    const before = await bands();
+    expect(
+      before.some((cell) => cell.layers.length > 0),
+      'the model gives W2 a colour somewhere',
+    ).toBe(true);
+    expect(await bands()).toEqual(before);
+    // A members-only coupon of the member's, measured, as a photo upload writes it — then the
+    // writer's version bump (library-versions.ts), which every such write makes in its transaction.
+    const id = await insertCoupon({ owner: 'member', visibility: 'members', layers: [ALLOY], temperatureC: 260, holdMinutes: 60, hexes: ['#3a4f9c'] });
+    try {
+      await bumpLibraryVersions(db, [await alloyIdOf(ALLOY)]);
+      const after = await bands();
+      // The library fit now rests on one coupon more (the fit counts the coupons it observed).
+      expect(couponsFitted(after)).toBe(couponsFitted(before) + 1);
+      expect(after.flatMap((cell) => cell.layers).every((layer) => layer.basis === 'library')).toBe(true);
+    } finally {
+      await db.delete(coupons).where(eq(coupons.id, id));
+      created.splice(created.indexOf(id), 1);
+      await bumpLibraryVersions(db, [await alloyIdOf(ALLOY)]);
+    }
+    expect(couponsFitted(await bands())).toBe(couponsFitted(before));
   });
 });
 

@@ -275,13 +275,56 @@ export function predictLayer(slug: string, temperatureC: number, holdMinutes: nu
   };
 }
 
+/** Predicts one alloy's band at one heat (predictLayer, or a memo of it: memoisedPredictor). */
+export type LayerPredictor = (slug: string, temperatureC: number, holdMinutes: number, fit: GrowthFit | null) => PredictedLayer;
+
+/** The most predictions a memo keeps per fit (and for the reference data); beyond, it starts again. */
+export const MAX_MEMOISED_PREDICTIONS = 4096;
+
+/**
+ * predictLayer remembered per fit: a prediction depends only on the alloy, the heat and the fit, so
+ * each fit (an immutable object; a library version that changes gives a new one) keeps its own
+ * predictions, and the reference data's (no fit) are kept for good. A heat the model gives no
+ * colour is remembered as its NoPredictionError. Fits no longer held elsewhere take their
+ * predictions with them (WeakMap).
+ */
+export function memoisedPredictor(predict: LayerPredictor = (slug, t, minutes, fit) => predictLayer(slug, t, minutes, fit)): LayerPredictor {
+  type Outcome = { layer: PredictedLayer } | { error: NoPredictionError };
+  const reference = new Map<string, Outcome>();
+  const byFit = new WeakMap<GrowthFit, Map<string, Outcome>>();
+  return (slug, temperatureC, holdMinutes, fit) => {
+    let store = fit ? byFit.get(fit) : reference;
+    if (!store) byFit.set(fit!, (store = new Map()));
+    const key = `${slug}|${temperatureC}|${holdMinutes}`;
+    let outcome = store.get(key);
+    if (!outcome) {
+      try {
+        outcome = { layer: predict(slug, temperatureC, holdMinutes, fit) };
+      } catch (error) {
+        if (!(error instanceof NoPredictionError)) throw error;
+        outcome = { error };
+      }
+      if (store.size >= MAX_MEMOISED_PREDICTIONS) store.clear();
+      store.set(key, outcome);
+    }
+    if ('error' in outcome) throw outcome.error;
+    return outcome.layer;
+  };
+}
+
 /** Every layer's band at one heat; a layer the model gives no colour there is named apart. */
-function predictCell(alloys: readonly string[], temperatureC: number, holdMinutes: number, fits: Readonly<Record<string, GrowthFit | null>>) {
+function predictCell(
+  alloys: readonly string[],
+  temperatureC: number,
+  holdMinutes: number,
+  fits: Readonly<Record<string, GrowthFit | null>>,
+  predict: LayerPredictor,
+) {
   const layers: PredictedLayer[] = [];
   const beyond: { alloy: string; reason: string }[] = [];
   for (const alloy of alloys) {
     try {
-      layers.push(predictLayer(alloy, temperatureC, holdMinutes, fits[alloy]));
+      layers.push(predict(alloy, temperatureC, holdMinutes, fits[alloy] ?? null));
     } catch (error) {
       if (!(error instanceof NoPredictionError)) throw error;
       beyond.push({ alloy, reason: error.message });
@@ -294,13 +337,15 @@ function predictCell(alloys: readonly string[], temperatureC: number, holdMinute
  * Bins the coupons (already only the viewer's, of exactly these alloys) into the matrix and
  * predicts every cell's heat. `fits` holds each alloy's library fit for the viewer (absent or
  * null: reference data alone). `counted`, when the coupons are a sample of each cell, gives the
- * cells' full counts and the temperature span of them all.
+ * cells' full counts and the temperature span of them all. `predict` gives each layer's band
+ * (predictLayer unless the caller keeps a memo of it).
  */
 export function buildPairMatrix(
   alloys: readonly string[],
   coupons: readonly MatrixCoupon[],
   fits: Readonly<Record<string, GrowthFit | null>> = {},
   counted?: CellCounts,
+  predict: LayerPredictor = (slug, temperatureC, holdMinutes, fit) => predictLayer(slug, temperatureC, holdMinutes, fit),
 ): PairMatrix {
   const sorted = [...new Set(alloys)].sort();
   const ordered = coupons.map((coupon) => orderLayers(coupon, sorted));
@@ -331,7 +376,7 @@ export function buildPairMatrix(
             column: column.index,
             temperatureC: row.centreC,
             holdMinutes: column.modelMinutes,
-            ...predictCell(modelled, row.centreC, column.modelMinutes, fits),
+            ...predictCell(modelled, row.centreC, column.modelMinutes, fits, predict),
           })),
         );
 

@@ -7,11 +7,15 @@ import {
   holdColumnOf,
   holdColumns,
   matrixPath,
+  memoisedPredictor,
   pairParamsSchema,
+  predictLayer,
   temperatureRowOf,
   temperatureRows,
+  type LayerPredictor,
   type MatrixCoupon,
 } from '~/lib/library/pair-matrix';
+import { fitGrowth, type GrowthFit } from '~/lib/tint';
 import { colourAt } from '~/lib/tint/ladder';
 import { heatThicknessNm } from '~/lib/tint/growth';
 import { findTintModel } from '~/lib/tint/models';
@@ -253,5 +257,60 @@ describe('a steel heat past its temper range', () => {
       expect(cell.layers).toEqual([]);
       expect(cell.beyond).toEqual([{ alloy: 'steel-1084', reason: expect.stringMatching(/past the temper range/) }]);
     }
+  });
+});
+
+describe('the model’s bands remembered per fit', () => {
+  /** predictLayer, counting its calls and the fits it was given. */
+  function counting() {
+    const calls: (GrowthFit | null)[] = [];
+    const predict: LayerPredictor = (slug, temperatureC, holdMinutes, fit) => {
+      calls.push(fit);
+      return predictLayer(slug, temperatureC, holdMinutes, fit);
+    };
+    return { calls, predict };
+  }
+  // Fits as libraryFit hands them out: one object per alloy, audience and library version. The
+  // coupon's colour is invented; only the fits' identity matters to the memo.
+  const fitOf = (b: number): GrowthFit => fitGrowth('ti-grade-5', [{ process: 'heat', temperatureC: 600, holdMinutes: 60, lab: { l: 45, a: 5, b } }]);
+
+  it('a repeat of a matrix predicts nothing and gives the same bands as predicting afresh', () => {
+    const { calls, predict } = counting();
+    const memo = memoisedPredictor(predict);
+    const first = buildPairMatrix(['ti-grade-2', 'ti-grade-5'], [], {}, undefined, memo);
+    const predictions = calls.length;
+    expect(predictions).toBe(first.rows.length * holdColumns.length * 2);
+    const again = buildPairMatrix(['ti-grade-2', 'ti-grade-5'], [], {}, undefined, memo);
+    expect(calls.length).toBe(predictions);
+    // Source of truth: the matrix built with predictLayer itself, no memo.
+    expect(again.predicted).toEqual(buildPairMatrix(['ti-grade-2', 'ti-grade-5'], []).predicted);
+  });
+
+  it('a new fit (the library version moved) is predicted afresh, with that fit', () => {
+    const { calls, predict } = counting();
+    const memo = memoisedPredictor(predict);
+    const before = fitOf(1);
+    memo('ti-grade-5', 600, 45, before);
+    memo('ti-grade-5', 600, 45, before);
+    expect(calls).toEqual([before]);
+    const after = fitOf(2);
+    memo('ti-grade-5', 600, 45, after);
+    expect(calls).toEqual([before, after]);
+    memo('ti-grade-5', 600, 45, null);
+    memo('ti-grade-5', 600, 45, null);
+    expect(calls).toEqual([before, after, null]);
+  });
+
+  it('remembers a heat the model gives no colour, and says why each time', () => {
+    const { calls, predict } = counting();
+    const memo = memoisedPredictor(predict);
+    const direct = buildPairMatrix(['steel-1084'], [coupon(700, 30, [['steel-1084', null]])]);
+    const beyond = direct.predicted.filter((cell) => cell.beyond.length > 0);
+    expect(beyond.length, 'a steel heat past its temper range').toBeGreaterThan(0);
+    buildPairMatrix(['steel-1084'], [coupon(700, 30, [['steel-1084', null]])], {}, undefined, memo);
+    const predictions = calls.length;
+    const again = buildPairMatrix(['steel-1084'], [coupon(700, 30, [['steel-1084', null]])], {}, undefined, memo);
+    expect(calls.length).toBe(predictions);
+    expect(again.predicted).toEqual(direct.predicted);
   });
 });

@@ -1,7 +1,15 @@
 import { and, asc, desc, eq, isNotNull, isNull, lte, max, min, ne, or, sql, type SQL } from 'drizzle-orm';
 import { coupons } from '../../../../db/schema';
 import { layerKeyOf } from '~/lib/alloys';
-import { buildPairMatrix, holdColumns, temperatureRows, type MatrixCoupon, type PairMatrix, type TemperatureRow } from '~/lib/library/pair-matrix';
+import {
+  buildPairMatrix,
+  holdColumns,
+  memoisedPredictor,
+  temperatureRows,
+  type MatrixCoupon,
+  type PairMatrix,
+  type TemperatureRow,
+} from '~/lib/library/pair-matrix';
 import type { SessionUser } from '~/lib/server/authorise';
 import { layersOf } from '~/lib/server/coupons';
 import { db } from '~/lib/server/db';
@@ -35,6 +43,13 @@ const matrixColumns = {
 };
 
 type MatrixRow = Omit<MatrixCoupon, 'layers'>;
+
+/**
+ * The model's bands, remembered in this process per fit: libraryFit keeps one fit per alloy,
+ * audience and library version, so a repeat of a matrix predicts nothing, and a write that bumps
+ * the alloy's version (library-versions.ts) brings a new fit and fresh predictions.
+ */
+const predictLayerMemo = memoisedPredictor();
 
 /** A temperature's row, as temperatureRowOf bins it (rows are contiguous: the first whose top lies above). */
 function rowCase(rows: readonly TemperatureRow[]): SQL {
@@ -92,7 +107,7 @@ export async function loadPairMatrix(viewer: Viewer, alloys: readonly string[]):
     }),
   }));
   const fits = Object.fromEntries(await Promise.all(sorted.map(async (slug) => [slug, await libraryFitFor(slug, viewer)] as const)));
-  const matrix = buildPairMatrix(sorted, matrixCoupons, fits, { temperaturesC, perCell });
+  const matrix = buildPairMatrix(sorted, matrixCoupons, fits, { temperaturesC, perCell }, predictLayerMemo);
   const inCells = [...perCell.values()].reduce((sum, n) => sum + n, 0);
   return {
     ...matrix,
