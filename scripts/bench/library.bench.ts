@@ -146,24 +146,32 @@ try {
     lab: Float64Array;
     alloy: Int32Array;
     visibleToMember: Uint8Array;
+    visibleToVisitor: Uint8Array;
   }
   async function loadEverySwatch(database: Pool): Promise<Swatches> {
     const [[{ n }]] = (await database.query('SELECT count(*) AS n FROM swatches WHERE is_mean = false')) as unknown as [{ n: number }[]];
-    const all: Swatches = { id: new Int32Array(n), lab: new Float64Array(n * 3), alloy: new Int32Array(n), visibleToMember: new Uint8Array(n) };
+    const all: Swatches = {
+      id: new Int32Array(n),
+      lab: new Float64Array(n * 3),
+      alloy: new Int32Array(n),
+      visibleToMember: new Uint8Array(n),
+      visibleToVisitor: new Uint8Array(n),
+    };
     let i = 0;
     // Streamed in id ranges, so the million rows never sit in memory as objects.
     for (let from = 0; ; from += 200_000) {
       const [batch] = (await database.query({
-        sql: `SELECT s.id, s.lab_l, s.lab_a, s.lab_b, coalesce(s.alloy_id, 0), c.visibility IN ('public','members') OR c.owner_id = ? FROM swatches s JOIN coupons c ON c.id = s.coupon_id
+        sql: `SELECT s.id, s.lab_l, s.lab_a, s.lab_b, coalesce(s.alloy_id, 0), c.visibility IN ('public','members') OR c.owner_id = ?, c.visibility = 'public' FROM swatches s JOIN coupons c ON c.id = s.coupon_id
             WHERE s.is_mean = false AND s.id > ? AND s.id <= ? ORDER BY s.id`,
         values: [member!.id, from, from + 200_000],
         rowsAsArray: true,
-      })) as unknown as [[number, number, number, number, number, number][]];
-      for (const [id, l, a, b, alloy, visible] of batch) {
+      })) as unknown as [[number, number, number, number, number, number, number][]];
+      for (const [id, l, a, b, alloy, visible, isPublic] of batch) {
         all.id[i] = id;
         all.lab.set([l, a, b], i * 3);
         all.alloy[i] = alloy;
         all.visibleToMember[i] = visible;
+        all.visibleToVisitor[i] = isPublic;
         i += 1;
       }
       if (i >= n) break;
@@ -175,12 +183,13 @@ try {
   const alloyIdOf = new Map(alloyRows.map((row) => [row.slug, row.id]));
   const ciede2000 = differenceCiede2000();
 
-  function bruteForce(lab: { l: number; a: number; b: number }, maxDeltaE: number, alloy: string | undefined, limit: number): number[] {
+  function bruteForce(lab: { l: number; a: number; b: number }, maxDeltaE: number, alloy: string | undefined, limit: number, visitor: boolean): number[] {
     const wanted = alloy ? alloyIdOf.get(alloy)! : 0;
+    const visible = visitor ? every.visibleToVisitor : every.visibleToMember;
     const hits: [number, number][] = [];
     const target = { mode: 'lab65' as const, ...lab };
     for (let i = 0; i < every.id.length; i += 1) {
-      if (!every.visibleToMember[i] || (wanted && every.alloy[i] !== wanted)) continue;
+      if (!visible[i] || (wanted && every.alloy[i] !== wanted)) continue;
       const d = ciede2000(target, { mode: 'lab65', l: every.lab[i * 3], a: every.lab[i * 3 + 1], b: every.lab[i * 3 + 2] });
       if (d <= maxDeltaE) hits.push([d, every.id[i]]);
     }
@@ -190,22 +199,36 @@ try {
       .map(([, id]) => id);
   }
 
-  const searchCases: [string, Record<string, string>][] = [
-    ['#3a5fa0 (blue), ΔE00 ≤ 2', { hex: '#3a5fa0', maxDeltaE: '2', limit: '100' }],
-    ['#3a5fa0 (blue), ΔE00 ≤ 5', { hex: '#3a5fa0', maxDeltaE: '5', limit: '100' }],
-    ['#3a5fa0 (blue), ΔE00 ≤ 10', { hex: '#3a5fa0', maxDeltaE: '10', limit: '100' }],
-    ['#c9a23c (straw), ΔE00 ≤ 5', { hex: '#c9a23c', maxDeltaE: '5', limit: '100' }],
-    ['#7a4a8c (purple), ΔE00 ≤ 3, limit 20', { hex: '#7a4a8c', maxDeltaE: '3', limit: '20' }],
-    ['#8a8a8a (grey), ΔE00 ≤ 10', { hex: '#8a8a8a', maxDeltaE: '10', limit: '100' }],
-    ['#3a5fa0, ti-grade-5, ΔE00 ≤ 5', { hex: '#3a5fa0', alloy: 'ti-grade-5', maxDeltaE: '5', limit: '100' }],
-    ['#c9a23c, steel-1084, ΔE00 ≤ 10', { hex: '#c9a23c', alloy: 'steel-1084', maxDeltaE: '10', limit: '100' }],
+  // No alloy and with one, tight and wide limits, a member and a visitor (public coupons only).
+  const searchCases: [string, Viewer, Record<string, string>][] = [
+    ['#3a5fa0 (blue), ΔE00 ≤ 0.5, member', member, { hex: '#3a5fa0', maxDeltaE: '0.5', limit: '100' }],
+    ['#3a5fa0 (blue), ΔE00 ≤ 2, member', member, { hex: '#3a5fa0', maxDeltaE: '2', limit: '100' }],
+    ['#3a5fa0 (blue), ΔE00 ≤ 5, member', member, { hex: '#3a5fa0', maxDeltaE: '5', limit: '100' }],
+    ['#3a5fa0 (blue), ΔE00 ≤ 10, member', member, { hex: '#3a5fa0', maxDeltaE: '10', limit: '100' }],
+    ['#3a5fa0 (blue), ΔE00 ≤ 10, visitor', null, { hex: '#3a5fa0', maxDeltaE: '10', limit: '100' }],
+    ['#c9a23c (straw), ΔE00 ≤ 5, member', member, { hex: '#c9a23c', maxDeltaE: '5', limit: '100' }],
+    ['#7a4a8c (purple), ΔE00 ≤ 3, limit 20, member', member, { hex: '#7a4a8c', maxDeltaE: '3', limit: '20' }],
+    ['#8a8a8a (grey), ΔE00 ≤ 10, member', member, { hex: '#8a8a8a', maxDeltaE: '10', limit: '100' }],
+    ['#8a8a8a (grey), ΔE00 ≤ 10, visitor', null, { hex: '#8a8a8a', maxDeltaE: '10', limit: '100' }],
+    ['#e0e0ff (outside the data), ΔE00 ≤ 10, member', member, { hex: '#e0e0ff', maxDeltaE: '10', limit: '100' }],
+    ['#3a5fa0, ti-grade-5, ΔE00 ≤ 1, member', member, { hex: '#3a5fa0', alloy: 'ti-grade-5', maxDeltaE: '1', limit: '100' }],
+    ['#3a5fa0, ti-grade-5, ΔE00 ≤ 5, member', member, { hex: '#3a5fa0', alloy: 'ti-grade-5', maxDeltaE: '5', limit: '100' }],
+    ['#3a5fa0, ti-grade-5, ΔE00 ≤ 5, visitor', null, { hex: '#3a5fa0', alloy: 'ti-grade-5', maxDeltaE: '5', limit: '100' }],
+    ['#c9a23c, steel-1084, ΔE00 ≤ 10, member', member, { hex: '#c9a23c', alloy: 'steel-1084', maxDeltaE: '10', limit: '100' }],
+    ['#c9a23c, niobium, ΔE00 ≤ 10, visitor', null, { hex: '#c9a23c', alloy: 'niobium', maxDeltaE: '10', limit: '100' }],
   ];
-  for (const [label, params] of searchCases) {
+  const explainedSearches = new Set([
+    '#3a5fa0 (blue), ΔE00 ≤ 5, member',
+    '#8a8a8a (grey), ΔE00 ≤ 10, visitor',
+    '#e0e0ff (outside the data), ΔE00 ≤ 10, member',
+    '#3a5fa0, ti-grade-5, ΔE00 ≤ 5, member',
+  ]);
+  for (const [label, viewer, params] of searchCases) {
     const query = colourSearchSchema.parse(params);
-    const call = () => searchSwatches(member, query);
+    const call = () => searchSwatches(viewer, query);
     const timing = await time(call, RUNS, 3);
     const found = (await call()).map((hit) => hit.swatchId);
-    const truth = bruteForce(query.lab, query.maxDeltaE, query.alloy, query.limit);
+    const truth = bruteForce(query.lab, query.maxDeltaE, query.alloy, query.limit, viewer === null);
     const recalled = truth.filter((id) => found.includes(id)).length;
     const recall = truth.length === 0 ? 1 : recalled / truth.length;
     const sameOrder = truth.length === found.length && truth.every((id, k) => found[k] === id);
@@ -221,7 +244,7 @@ try {
       target: '1.000, yes',
       met: recall === 1 && sameOrder,
     });
-    if (label.startsWith('#3a5fa0 (blue), ΔE00 ≤ 5') || label.includes('ti-grade-5')) explains.push(...(await explainCall(`colour search: ${label}`, call)));
+    if (explainedSearches.has(label)) explains.push(...(await explainCall(`colour search: ${label}`, call)));
   }
 
   // The library fit's version: the recount it replaced (count, id sum and last edit of the alloy's
