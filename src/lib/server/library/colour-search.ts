@@ -31,8 +31,18 @@ export interface SwatchHit {
   };
 }
 
-/** The first ΔE00 radius searched; each further round doubles it, up to the asked limit. */
+/** The first ΔE00 radius searched; further rounds widen it (nextRadius), up to the asked limit. */
 const FIRST_RADIUS = 1.5;
+
+/**
+ * The next round's radius: as far as the visible hits found so far suggest `limit` lie (they grow
+ * with the volume, so with r³), with a margin; at least a quarter wider, at most twice, never past
+ * the asked limit. Only speed depends on it: every round is exact within its radius.
+ */
+export function nextRadius(radius: number, found: number, limit: number, maxDeltaE: number): number {
+  const estimate = found > 0 ? radius * Math.cbrt(limit / found) * 1.15 : radius * 2;
+  return Math.min(maxDeltaE, Math.max(radius * 1.25, Math.min(radius * 2, estimate)));
+}
 
 /** A swatch found near the colour, before anyone's visibility is applied. */
 interface Candidate {
@@ -48,7 +58,7 @@ type Details = Omit<SwatchHit, 'lab' | 'deltaE00'>;
  * itself) of coupons the viewer may see, within `maxDeltaE` ΔE00 of the colour, nearest first
  * (ties by swatch id), at most `limit`.
  *
- * In rounds of growing radius r (FIRST_RADIUS, doubling, up to maxDeltaE):
+ * In rounds of growing radius r (FIRST_RADIUS, then nextRadius, up to maxDeltaE):
  * 1. nearbySwatches reads id and CIELAB of every measured swatch in the CIELAB box that provably
  *    holds all colours within r (deltaE00Box) from the covering colour index alone, as one range
  *    of b* per colour cell; exact ΔE00 keeps those within r, nearest first.
@@ -65,7 +75,7 @@ export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promi
     alloyId = alloy.id;
   }
   const known = new Map<number, Details | null>();
-  for (let radius = Math.min(FIRST_RADIUS, query.maxDeltaE); ; radius = Math.min(radius * 2, query.maxDeltaE)) {
+  for (let radius = Math.min(FIRST_RADIUS, query.maxDeltaE); ;) {
     const candidates = await nearbySwatches(query.lab, radius, alloyId);
     const hits: SwatchHit[] = [];
     let batch = query.limit * 2 + 10;
@@ -88,6 +98,7 @@ export async function searchSwatches(viewer: Viewer, query: ColourSearch): Promi
       if (details) hits.push({ ...details, lab: candidate.lab, deltaE00: Math.round(candidate.deltaE00 * 1000) / 1000 });
     }
     if (hits.length >= query.limit || radius >= query.maxDeltaE) return hits;
+    radius = nextRadius(radius, hits.length, query.limit, query.maxDeltaE);
   }
 }
 
