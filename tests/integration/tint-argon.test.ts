@@ -1,10 +1,13 @@
+import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { alloys, libraryVersions } from '../../db/schema';
 import { api, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { deleteCoupons, insertSyntheticCoupon, type SyntheticCoupon } from '../fixtures/library-coupons';
 import { heatThicknessNm } from '~/lib/tint/growth';
 import { findTintModel } from '~/lib/tint/models';
+import { bumpLibraryVersions } from '~/lib/server/library-versions';
 
 // Heats under argon against the real database: the member's own argon coupons (invented data: a fifth
 // of the reference air film, coloured by our optics) must carry the prediction; people without them
@@ -13,9 +16,9 @@ import { findTintModel } from '~/lib/tint/models';
 const ALLOY = 'ti-grade-4';
 const law = findTintModel(ALLOY)!.heat!.law;
 const FRACTION = 0.2;
-const argonHeat = (temperatureC: number, holdMinutes: number): SyntheticCoupon => ({
+const argonHeat = (temperatureC: number, holdMinutes: number, alloy = ALLOY): SyntheticCoupon => ({
   ownerEmail: demo.member,
-  alloy: ALLOY,
+  alloy,
   visibility: 'private',
   atmosphere: 'argon',
   temperatureC,
@@ -76,5 +79,48 @@ describe('the heat planner under argon', () => {
     const body = await predict({ ...plan, atmosphere: 'other' }, member);
     expect(body.outcome).toBe('none');
     expect(body.reason).toBe('other-atmosphere');
+  });
+});
+
+describe('the argon fit is kept by alloy and library version', () => {
+  // An alloy no other test file writes coupons of, so only this test moves its library version.
+  const KEPT = 'ti-grade-1';
+  const keptPlan = { ...plan, alloy: KEPT };
+  const argonCount = async () => {
+    const body = await predict(keptPlan, member);
+    expect(body.outcome).toBe('prediction');
+    return body.argon.couponCount as number;
+  };
+  const version = async (alloyId: number) => {
+    const [row] = await db.select({ version: libraryVersions.version }).from(libraryVersions).where(eq(libraryVersions.alloyId, alloyId));
+    return row?.version ?? 0;
+  };
+
+  it('a new argon coupon refits at once, a version that did not move keeps the fit, and a writer’s bump refits', async () => {
+    const [{ id: alloyId }] = await db.select({ id: alloys.id }).from(alloys).where(eq(alloys.slug, KEPT));
+    for (const [temperatureC, holdMinutes] of [
+      [550, 60],
+      [600, 60],
+      [620, 90],
+    ]) {
+      inserted.push(await insertSyntheticCoupon(db, argonHeat(temperatureC, holdMinutes, KEPT)));
+    }
+    const first = await argonCount();
+    expect(first).toBeGreaterThanOrEqual(3);
+
+    // The fixture bumps the version as the app's writers do: the next prediction counts the new coupon.
+    inserted.push(await insertSyntheticCoupon(db, argonHeat(640, 120, KEPT)));
+    expect(await argonCount()).toBe(first + 1);
+
+    // A coupon written with the version put back (as a write that forgot to bump would leave it):
+    // the fit kept for that version answers, without the coupon.
+    const before = await version(alloyId);
+    inserted.push(await insertSyntheticCoupon(db, argonHeat(630, 45, KEPT)));
+    await db.update(libraryVersions).set({ version: before }).where(eq(libraryVersions.alloyId, alloyId));
+    expect(await argonCount()).toBe(first + 1);
+
+    // The writers' own bump (library-versions.ts) gives a fresh fit that counts it.
+    await bumpLibraryVersions(db, [alloyId]);
+    expect(await argonCount()).toBe(first + 2);
   });
 });
