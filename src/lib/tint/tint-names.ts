@@ -13,10 +13,10 @@ import { oklabToOklch, type Lab } from '~/lib/colour';
 const orders = ['second-order', 'third-order', 'higher-order'] as const;
 type Order = (typeof orders)[number];
 /** Colours that come back in every order after the first; each carries its order in its name. */
-const repeating = ['gold', 'blue', 'rose', 'violet', 'teal', 'green', 'grey'] as const;
+const repeating = ['gold', 'pale gold', 'blue', 'rose', 'violet', 'teal', 'green', 'grey'] as const;
 type Repeating = (typeof repeating)[number];
 
-const firstOrder = ['silver', 'pale straw', 'straw', 'gold', 'bronze', 'brown', 'purple', 'deep blue', 'blue', 'light blue', 'grey', 'pale gold'] as const;
+const firstOrder = ['silver', 'pale straw', 'straw', 'gold', 'bronze', 'brown', 'purple', 'deep blue', 'blue', 'light blue', 'grey'] as const;
 
 export type TintName = (typeof firstOrder)[number] | `${Order} ${Repeating}`;
 
@@ -65,7 +65,7 @@ export function tintName(oklab: Lab, order: number): TintName {
     return 'grey';
   }
   const named = (name: Repeating): TintName => `${ordinal(order)} ${name}`;
-  if (h >= 55 && h < 125) return c < PALE_CHROMA ? 'pale gold' : named('gold');
+  if (h >= 55 && h < 125) return named(c < PALE_CHROMA ? 'pale gold' : 'gold');
   if (h >= 330 || h < 55) return named('rose');
   if (h >= 285) return named('violet');
   if (h >= 215) return named('blue');

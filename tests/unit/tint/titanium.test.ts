@@ -73,7 +73,7 @@ describe('titanium tint ladder (TiO2 on Ti)', () => {
     });
 
     it('green at 92 nm lies in the yellow-green quadrant (a* < 0 < b*), pale', () => {
-      // Our 92 nm film is a pale yellow-green (named "pale gold"/"grey"); the paper calls it green.
+      // Our 92 nm film is a pale yellow-green (named "second-order pale gold"/"second-order grey"); the paper calls it green.
       for (const d of [92 * 0.95, 92, 92 * 1.05]) {
         const { lab } = colourAt(TI, d);
         expect(lab.a).toBeLessThan(0);
