@@ -106,6 +106,12 @@ async function photoFiles(inputs: string[]): Promise<{ files: string[]; unreadab
   return { files, unreadable };
 }
 
+/**
+ * Photos read and decoded ahead of the one being measured. Two keep both cores busy while this thread
+ * measures (a decode is mostly one thread of libjpeg); each holds the decoded part of one photo.
+ */
+const DECODE_AHEAD = 2;
+
 async function main(): Promise<number> {
   let command: CommandLine;
   try {
@@ -121,8 +127,8 @@ async function main(): Promise<number> {
   let failed = unreadable.length > 0;
   for (const folder of unreadable) console.error(`analyze: cannot read the folder ${folder}`);
 
-  // The next photo is read and decoded (in sharp's threads) while this one is measured. Each
-  // outcome is caught at once, so a bad photo waits its turn to be reported.
+  // The next photos are read and decoded (in sharp's threads, on the other core) while this one is
+  // measured. Each outcome is caught at once, so a bad photo waits its turn to be reported.
   const load = (file: string) =>
     readFile(file).then(
       (buffer) =>
@@ -132,10 +138,10 @@ async function main(): Promise<number> {
         ),
       (error: NodeJS.ErrnoException) => ({ unread: error }),
     );
-  let next = files.length > 0 ? load(files[0]) : undefined;
+  const ahead = files.slice(0, DECODE_AHEAD).map(load);
   for (const [index, file] of files.entries()) {
-    const loaded = await next!;
-    next = index + 1 < files.length ? load(files[index + 1]) : undefined;
+    const loaded = await ahead.shift()!;
+    if (index + DECODE_AHEAD < files.length) ahead.push(load(files[index + DECODE_AHEAD]));
     if ('unread' in loaded) {
       console.error(`analyze: cannot read ${file}: ${loaded.unread.code ?? loaded.unread.message}`);
       failed = true;

@@ -26,8 +26,11 @@ const squaredDistance = (points: Float64Array, i: number, centres: Float64Array,
   return dl * dl + da * da + db * db;
 };
 
-/** Index of the centre nearest to point `i`; its squared distance is left in `lastDistance`. */
-let lastDistance = 0;
+/**
+ * Index of the centre nearest to point `i`; its squared distance is left in `lastDistance[0]` (a typed
+ * array, so writing it allocates nothing: a number kept in a module variable is boxed on every write).
+ */
+const lastDistance = new Float64Array(1);
 function nearest(points: Float64Array, i: number, centres: Float64Array): number {
   const l = points[i];
   const a = points[i + 1];
@@ -45,7 +48,7 @@ function nearest(points: Float64Array, i: number, centres: Float64Array): number
       cluster = c;
     }
   }
-  lastDistance = distance;
+  lastDistance[0] = distance;
   return cluster;
 }
 
@@ -136,7 +139,7 @@ function lloyd(points: Float64Array, initial: Float64Array, maxIterations: numbe
   let wcss = 0;
   for (let i = 0; i < n; i += 1) {
     nearest(points, i * 3, centres);
-    wcss += lastDistance;
+    wcss += lastDistance[0];
   }
   return { centres, wcss };
 }
