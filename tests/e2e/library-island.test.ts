@@ -3,7 +3,7 @@ import { chromium, type Page } from 'playwright-core';
 import { and, count, eq } from 'drizzle-orm';
 import { coupons } from '../../db/schema';
 import { baseUrl } from '../support/app';
-import { useBrowser } from '../support/browser';
+import { useBrowser, watchForFailures } from '../support/browser';
 import { testDatabase } from '../support/database';
 
 // The library page in Chromium, as a visitor: the island takes over filtering, sorting and
@@ -173,6 +173,7 @@ describe('the library island', () => {
 describe('the library with JavaScript switched off', () => {
   it('lists coupons, filters through the plain form, and submits compare ticks as a plain form', async () => {
     const noScript = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-quic'] });
+    watchForFailures(noScript);
     try {
       const context = await noScript.newContext({ javaScriptEnabled: false, viewport: { width: 1280, height: 900 } });
       const page = await context.newPage();

@@ -1,13 +1,18 @@
-import { afterAll, beforeAll, onTestFailed } from 'vitest';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions } from 'playwright-core';
+import { baseUrl, type Jar } from './app';
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 
+/** What a test file may ask of its browser beyond the defaults (Playwright's own context options). */
+export type BrowserOptions = Pick<BrowserContextOptions, 'bypassCSP' | 'reducedMotion' | 'viewport'>;
+
 /** Debian's Chromium, headless, with a fresh profile; never a downloaded browser. */
-export async function launchBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+export async function launchBrowser(options: BrowserOptions = {}): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
   const profileDir = mkdtempSync(path.join(tmpdir(), 'oxbloom-chromium-'));
   const context = await chromium.launchPersistentContext(profileDir, {
+    ...options,
     executablePath: '/usr/bin/chromium',
     headless: true,
     args: [
@@ -20,9 +25,11 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
       '--disable-sync',
     ],
   });
+  watchForFailures(context);
   return {
     context,
     close: async () => {
+      watched.delete(context);
       await context.close();
       rmSync(profileDir, { recursive: true, force: true });
     },
@@ -30,10 +37,10 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close:
 }
 
 /** One browser for a test file: launched before its tests, closed after. Call the result for the context. */
-export function useBrowser(): () => BrowserContext {
+export function useBrowser(options: BrowserOptions = {}): () => BrowserContext {
   let browser: Awaited<ReturnType<typeof launchBrowser>> | undefined;
   beforeAll(async () => {
-    browser = await launchBrowser();
+    browser = await launchBrowser(options);
   });
   afterAll(() => browser?.close());
   return () => {
@@ -42,20 +49,40 @@ export function useBrowser(): () => BrowserContext {
   };
 }
 
-/** Where a failed browser test leaves its screenshot (`.data/` is ignored by git). */
-export const failureShotDir = path.join(process.cwd(), '.data', 'e2e-failures');
+/** Where a failed browser test leaves a full-page screenshot of each page it had open (ignored by git). */
+export const failureShotDir = path.join(process.cwd(), 'test-artefacts');
+
+/** The browsers and contexts whose open pages a failed test photographs. */
+const watched = new Set<BrowserContext | Browser>();
 
 /**
- * Keeps a full-page screenshot of `page` when the running test fails, named after the test and
- * `label`, so a failure on a loaded machine can be looked at afterwards. Call inside the test.
+ * Photographs every open page of `target` when a test of this file fails. `launchBrowser` (and so
+ * `useBrowser`) watches its own context; a test that launches another browser or context passes it here.
  */
-export function keepScreenshotOnFailure(page: Page, label: string): void {
-  onTestFailed(async ({ task }) => {
-    if (page.isClosed()) return;
-    mkdirSync(failureShotDir, { recursive: true });
-    const name = `${label}-${task.name}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
-    const file = path.join(failureShotDir, `${name}.png`);
-    await page.screenshot({ path: file, fullPage: true }).catch(() => undefined);
-    console.error(`Screenshot of the failed page (${page.url()}): ${file}`);
-  });
+export function watchForFailures(target: BrowserContext | Browser): void {
+  watched.add(target);
+}
+
+afterEach(async ({ task }) => {
+  if (task.result?.state !== 'fail') return;
+  const pages = [...watched].flatMap((target) => ('contexts' in target ? target.contexts().flatMap((context) => context.pages()) : target.pages()));
+  if (!pages.length) return;
+  mkdirSync(failureShotDir, { recursive: true });
+  const file = path.basename(task.file?.name ?? 'test', '.test.ts');
+  const stem = `${file}-${task.name}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
+  for (const [index, page] of pages.entries()) {
+    if (page.isClosed()) continue;
+    const shot = path.join(failureShotDir, `${stem}-${index + 1}.png`);
+    const taken = await page.screenshot({ path: shot, fullPage: true, timeout: 10_000 }).then(
+      () => true,
+      () => false,
+    );
+    if (taken) console.error(`Screenshot of ${page.url()} when "${task.name}" failed: ${shot}`);
+  }
+});
+
+/** Puts a signed-in cookie jar (tests/support/auth.ts `signedIn`) into the browser, replacing its cookies. */
+export async function useJar(context: BrowserContext, jar: Jar | null): Promise<void> {
+  await context.clearCookies();
+  if (jar) await context.addCookies([...jar.cookies].map(([name, value]) => ({ name, value, url: baseUrl })));
 }
