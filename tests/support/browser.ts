@@ -1,5 +1,5 @@
-import { afterAll, afterEach, beforeAll } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type BrowserContextOptions } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, beforeEach } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 import { baseUrl, type Jar } from './app';
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -54,30 +54,42 @@ export const failureShotDir = path.join(process.cwd(), 'test-artefacts');
 
 /** The browsers and contexts whose open pages a failed test photographs. */
 const watched = new Set<BrowserContext | Browser>();
+const openPages = () => [...watched].flatMap((target) => ('contexts' in target ? target.contexts().flatMap((context) => context.pages()) : target.pages()));
 
 /**
- * Photographs every open page of `target` when a test of this file fails. `launchBrowser` (and so
- * `useBrowser`) watches its own context; a test that launches another browser or context passes it here.
+ * Photographs the pages a failed test of this file left open. `launchBrowser` (and so
+ * `useBrowser`) watches its own context; a test that launches another browser passes it here.
  */
 export function watchForFailures(target: BrowserContext | Browser): void {
   watched.add(target);
 }
 
+/** The pages open before the running test started: they are not its own. */
+let earlier = new Set<Page>();
+beforeEach(() => {
+  earlier = new Set(openPages());
+});
+
 afterEach(async ({ task }) => {
   if (task.result?.state !== 'fail') return;
-  const pages = [...watched].flatMap((target) => ('contexts' in target ? target.contexts().flatMap((context) => context.pages()) : target.pages()));
+  const pages = openPages().filter((page) => !earlier.has(page) && !page.isClosed());
   if (!pages.length) return;
   mkdirSync(failureShotDir, { recursive: true });
   const file = path.basename(task.file?.name ?? 'test', '.test.ts');
-  const stem = `${file}-${task.name}`.replace(/[^\w.-]+/g, '-').slice(0, 120);
+  const stem = [file, task.suite?.name, task.name]
+    .filter(Boolean)
+    .join('-')
+    .replace(/[^\w.-]+/g, '-')
+    .slice(0, 160);
   for (const [index, page] of pages.entries()) {
-    if (page.isClosed()) continue;
-    const shot = path.join(failureShotDir, `${stem}-${index + 1}.png`);
+    const shot = path.join(failureShotDir, `${stem}${pages.length > 1 ? `-${index + 1}` : ''}.png`);
     const taken = await page.screenshot({ path: shot, fullPage: true, timeout: 10_000 }).then(
       () => true,
       () => false,
     );
     if (taken) console.error(`Screenshot of ${page.url()} when "${task.name}" failed: ${shot}`);
+    // The failed test never reached its own page.close().
+    await page.close().catch(() => undefined);
   }
 });
 

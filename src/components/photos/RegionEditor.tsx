@@ -127,6 +127,19 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
     setTool(mark);
   }
 
+  /** Enter or Space on the photo places a rectangle of the chosen kind in its middle, to move and size with the keys. */
+  function onPhotoKeyDown(event: KeyboardEvent<HTMLDivElement>) {
+    if (event.target !== event.currentTarget || (event.key !== 'Enter' && event.key !== ' ')) return;
+    event.preventDefault();
+    const middle = { x: size.width / 2, y: size.height / 2 };
+    const half = { x: size.width / 8, y: size.height / 8 };
+    const mark = tool;
+    withMark(mark, spanned({ x: middle.x - half.x, y: middle.y - half.y }, { x: middle.x + half.x, y: middle.y + half.y }, size));
+    const next = layers.find((layer) => layerMark(layer.id) !== mark && !marks[layerMark(layer.id)]);
+    if (next) setTool(layerMark(next.id));
+    requestAnimationFrame(() => box.current?.querySelector<HTMLElement>(`[data-mark="${mark}"]`)?.focus());
+  }
+
   function onKeyDown(event: KeyboardEvent<HTMLDivElement>, mark: string) {
     const rectangle = marks[mark];
     if (event.key === 'Delete' || event.key === 'Backspace') {
@@ -169,6 +182,10 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
         onPointerMove={onPointerMove}
         onPointerUp={onPointerEnd}
         onPointerCancel={onPointerEnd}
+        tabIndex={editable ? 0 : undefined}
+        role={editable ? 'group' : undefined}
+        aria-label={editable ? 'Photo: Enter places a rectangle of the chosen kind' : undefined}
+        onKeyDown={editable ? onPhotoKeyDown : undefined}
         data-testid="photo-canvas"
       >
         <img src={photo.displayUrl} alt="Photo of the coupon" width={photo.width} height={photo.height} className="block h-auto w-full" draggable={false} />
@@ -215,8 +232,8 @@ export default function RegionEditor({ photo, layers, marks, editable, onChange 
       </div>
       {editable && (
         <p className="field-hint">
-          Drag on the photo to mark the chosen layer; drag a rectangle to move it, its corner to resize it. With the keyboard: arrows move a rectangle, Shift
-          and arrows resize it, Delete removes it.
+          Drag on the photo to mark the chosen layer; drag a rectangle to move it, its corner to resize it. With the keyboard: Enter on the photo places a
+          rectangle of the chosen kind, arrows move a rectangle, Shift and arrows resize it, Delete removes it.
         </p>
       )}
     </div>
