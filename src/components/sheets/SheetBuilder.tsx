@@ -1,8 +1,11 @@
-import { useEffect, useRef, useState, type DragEvent, type KeyboardEvent } from 'react';
+import { useEffect, useRef, useState, type DragEvent, type FormEvent, type KeyboardEvent } from 'react';
 import { callApi } from '~/components/api-client';
 import type { Orientation, PageSizeName, SheetAudience, SheetStatus, SheetUnits } from '~/lib/sheets/requests';
+import { alloyCatalogue } from '~/lib/alloys';
+import { labels } from '~/lib/heat-record-text';
+import { libraryPickQuery, libraryPicks, noLibraryFilters, type LibraryCouponAnswer, type LibraryPickFilters } from '~/lib/sheets/library-picks';
 
-/** A swatch the builder can place: from the class, the instructor's own coupons, or a colour search. */
+/** A swatch the builder can place: from the class, the instructor's own coupons, the library's filters or a colour search. */
 export interface Pick {
   swatchId: number;
   hex: string;
@@ -56,7 +59,10 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
   const [status, setStatus] = useState(initialStatus);
   const [save, setSave] = useState<{ state: 'saved' | 'saving' | 'error'; message?: string }>({ state: 'saved' });
   const [announcement, setAnnouncement] = useState('');
-  const [source, setSource] = useState<'class' | 'own' | 'search'>(fromClass.length ? 'class' : 'own');
+  const [source, setSource] = useState<'class' | 'own' | 'library' | 'search'>(fromClass.length ? 'class' : 'own');
+  const [filters, setFilters] = useState<LibraryPickFilters>(noLibraryFilters);
+  const [libraryFound, setLibraryFound] = useState<Pick[]>([]);
+  const [libraryMessage, setLibraryMessage] = useState('');
   const [searchHex, setSearchHex] = useState('#c8a060');
   const [found, setFound] = useState<Pick[]>([]);
   const [searchMessage, setSearchMessage] = useState('');
@@ -127,6 +133,17 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
     setSearchMessage(`${answer.body.hits.length} swatches within ΔE00 10.`);
   }
 
+  async function filterLibrary(event: FormEvent) {
+    event.preventDefault();
+    setLibraryMessage('Searching…');
+    const answer = await callApi<{ coupons: LibraryCouponAnswer[]; total: number }>(`/api/coupons?${libraryPickQuery(filters)}`);
+    if (!answer.ok) return setLibraryMessage(answer.message);
+    const picks = libraryPicks(answer.body.coupons);
+    setLibraryFound(picks);
+    setLibraryMessage(`${picks.length} swatches from ${answer.body.coupons.length} of ${answer.body.total} coupons.`);
+  }
+  const setFilter = (key: keyof LibraryPickFilters, value: string) => setFilters((current) => ({ ...current, [key]: value }));
+
   async function publish(next: SheetStatus) {
     setSave({ state: 'saving' });
     const answer = await callApi(`/api/sheets/${sheetId}`, { method: 'PATCH', body: { ...settings, items: toRequest(items), status: next } });
@@ -134,7 +151,20 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
     setSave(answer.ok ? { state: 'saved' } : { state: 'error', message: answer.message });
   }
 
-  const picks = source === 'class' ? fromClass : source === 'own' ? own : found;
+  const picks = source === 'class' ? fromClass : source === 'own' ? own : source === 'library' ? libraryFound : found;
+  const alloySelect = (key: 'alloy' | 'pairA' | 'pairB', label: string) => (
+    <div className="field">
+      <label htmlFor={`sheet-library-${key}`}>{label}</label>
+      <select id={`sheet-library-${key}`} className="input" value={filters[key]} onChange={(event) => setFilter(key, event.target.value)}>
+        <option value="">Any</option>
+        {alloyCatalogue.map((alloy) => (
+          <option key={alloy.slug} value={alloy.slug}>
+            {alloy.name}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
       <div className="space-y-4">
@@ -219,7 +249,7 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
         <p aria-live="polite" className="sr-only">
           {announcement}
         </p>
-        <ol aria-labelledby="arrange-heading" className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+        <ol aria-labelledby="arrange-heading" className="grid grid-cols-1 gap-3 sm:grid-cols-2 xl:grid-cols-3">
           {items.map((item, index) => (
             <li
               key={item.key}
@@ -247,13 +277,16 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
                     <span className="h-10 w-10 shrink-0 rounded border border-ash-300" style={{ background: item.hex }} aria-hidden="true" />
                     <span className="min-w-0 text-sm">
                       <span className="tabular block font-mono">{item.hex.toUpperCase()}</span>
-                      <span className="block truncate text-ash-600">{item.available ? item.label : 'No longer shared or deleted'}</span>
+                      <span className="block truncate text-ash-600" title={item.available ? item.label : undefined}>
+                        {item.available ? item.label : 'No longer shared or deleted'}
+                      </span>
                     </span>
                   </div>
-                  <input
+                  <textarea
                     aria-label={`Caption for ${item.hex}`}
                     placeholder="Caption"
-                    className="input text-sm"
+                    rows={2}
+                    className="input min-h-0 text-sm"
                     value={item.caption}
                     maxLength={280}
                     onChange={(event) => update(item.key, { caption: event.target.value })}
@@ -332,13 +365,14 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
         </div>
       </div>
 
-      <aside className="space-y-3" aria-labelledby="pick-heading">
+      <aside className="space-y-3 lg:sticky lg:top-4 lg:self-start" aria-labelledby="pick-heading">
         <h2 id="pick-heading">Add swatches</h2>
         <div className="flex flex-wrap gap-1" role="group" aria-label="Where from">
           {(
             [
               ['class', 'The class'],
               ['own', 'My coupons'],
+              ['library', 'Library'],
               ['search', 'Library by colour'],
             ] as const
           ).map(([key, label]) => (
@@ -353,6 +387,52 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
             </button>
           ))}
         </div>
+        {source === 'library' && (
+          <form className="grid grid-cols-2 gap-2" aria-label="Filter the library" onSubmit={filterLibrary}>
+            <div className="col-span-2">{alloySelect('alloy', 'Alloy')}</div>
+            {alloySelect('pairA', 'Pair: first alloy')}
+            {alloySelect('pairB', 'Pair: second alloy')}
+            <div className="field col-span-2">
+              <label htmlFor="sheet-library-process">Process</label>
+              <select id="sheet-library-process" className="input" value={filters.process} onChange={(event) => setFilter('process', event.target.value)}>
+                <option value="">Any</option>
+                {Object.entries(labels.process).map(([value, label]) => (
+                  <option key={value} value={value}>
+                    {label}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <div className="field">
+              <label htmlFor="sheet-library-min">From °C</label>
+              <input
+                id="sheet-library-min"
+                className="input"
+                inputMode="numeric"
+                value={filters.tempMin}
+                onChange={(event) => setFilter('tempMin', event.target.value)}
+              />
+            </div>
+            <div className="field">
+              <label htmlFor="sheet-library-max">To °C</label>
+              <input
+                id="sheet-library-max"
+                className="input"
+                inputMode="numeric"
+                value={filters.tempMax}
+                onChange={(event) => setFilter('tempMax', event.target.value)}
+              />
+            </div>
+            <div className="col-span-2 flex flex-wrap items-center gap-2">
+              <button type="submit" className="btn">
+                Show swatches
+              </button>
+              <span role="status" className="text-sm text-ash-600">
+                {libraryMessage}
+              </span>
+            </div>
+          </form>
+        )}
         {source === 'search' && (
           <div className="flex items-end gap-2">
             <div className="field">
@@ -368,7 +448,7 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
           </div>
         )}
         {source === 'class' && !settings.classId && <p className="text-sm text-ash-600">Choose the sheet’s class to see what its students shared.</p>}
-        <ul className="grid max-h-[32rem] grid-cols-2 gap-2 overflow-y-auto">
+        <ul className="grid max-h-[32rem] grid-cols-2 gap-2 overflow-y-auto lg:max-h-[calc(100vh-14rem)]">
           {picks.map((pick) => (
             <li key={pick.swatchId}>
               <button
@@ -383,7 +463,7 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
             </li>
           ))}
         </ul>
-        {picks.length === 0 && source !== 'search' && <p className="text-sm text-ash-600">Nothing here yet.</p>}
+        {picks.length === 0 && source !== 'search' && source !== 'library' && <p className="text-sm text-ash-600">Nothing here yet.</p>}
       </aside>
     </div>
   );

@@ -9,6 +9,8 @@ import { listCouponRows, type LibraryRecord } from './coupon-rows';
 type Viewer = Pick<SessionUser, 'id' | 'role'> | null;
 
 export interface DominantSwatch {
+  /** The swatch row, so a colour sheet can place it. */
+  swatchId: number;
   position: number;
   alloy: string;
   hex: string;
@@ -161,12 +163,21 @@ export async function dominantSwatches(layerIds: number[]): Promise<Map<number, 
   const byLayer = new Map<number, Omit<DominantSwatch, 'position' | 'alloy'>>();
   if (layerIds.length === 0) return byLayer;
   const rows = await db()
-    .select({ layerId: swatches.layerId, hex: swatches.hex, l: swatches.labL, a: swatches.labA, b: swatches.labB, share: swatches.share })
+    .select({
+      swatchId: swatches.id,
+      layerId: swatches.layerId,
+      hex: swatches.hex,
+      l: swatches.labL,
+      a: swatches.labA,
+      b: swatches.labB,
+      share: swatches.share,
+    })
     .from(swatches)
     .where(and(inArray(swatches.layerId, layerIds), eq(swatches.isMean, false)))
     .orderBy(desc(swatches.share), asc(swatches.id));
   for (const row of rows) {
-    if (row.layerId !== null && !byLayer.has(row.layerId)) byLayer.set(row.layerId, { hex: row.hex, lab: { l: row.l, a: row.a, b: row.b }, share: row.share });
+    if (row.layerId !== null && !byLayer.has(row.layerId))
+      byLayer.set(row.layerId, { swatchId: row.swatchId, hex: row.hex, lab: { l: row.l, a: row.a, b: row.b }, share: row.share });
   }
   return byLayer;
 }
