@@ -4,12 +4,13 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { eq, inArray } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { classes, classMembers, colourSheets, coupons, photos, swatches, users } from '../../db/schema';
+import { alloys, classes, classMembers, colourSheets, coupons, photos, swatches, users } from '../../db/schema';
 import { api, newJar, type Jar } from '../support/app';
 import { confirmedAccount, demo, signedIn, type TestAccount } from '../support/auth';
 import { testDatabase } from '../support/database';
 import { countMail, waitForMail } from '../support/mail';
 import { deleteTestCoupons, insertCoupon, userIdOf } from '../support/photos';
+import { libraryPickQuery, libraryPicks, noLibraryFilters, type LibraryCouponAnswer } from '~/lib/sheets/library-picks';
 
 /**
  * Colour sheets over HTTP against the built app and MariaDB: who sees which sheet, the order kept
@@ -253,6 +254,177 @@ describe('publishing', () => {
     const response = await patch(id, { status: 'published', audience: 'class' });
     expect(response.status).toBe(400);
     expect(((await response.json()) as { field: string }).field).toBe('audience');
+  });
+});
+
+describe('the builder’s library picker', () => {
+  it('finds a laminate by the library’s filters and places each layer’s dominant swatch', async () => {
+    // A forge-tempered 1084 / 15N20 offcut at a temperature no demo coupon has (287 °C), with two
+    // measured clusters per layer; the dominant one is the cluster with the larger share.
+    const layers = ['steel-1084', 'steel-15n20'];
+    const coupon = await insertCoupon(db, demo.member, layers, 'public');
+    couponIds.push(coupon.id);
+    await db.update(coupons).set({ process: 'forge', temperatureC: 287, holdSeconds: 300 }).where(eq(coupons.id, coupon.id));
+    const [photo] = await db
+      .insert(photos)
+      .values({
+        couponId: coupon.id,
+        ownerId: await userIdOf(db, demo.member),
+        originalKey: 'x',
+        displayKey: 'x',
+        thumbKey: 'x',
+        contentType: 'image/jpeg',
+        byteSize: 1,
+        width: 1,
+        height: 1,
+      })
+      .$returningId();
+    const cluster = async (layer: number, rank: number, share: number, hex: string) => {
+      const [row] = await db
+        .insert(swatches)
+        .values({
+          photoId: photo.id,
+          couponId: coupon.id,
+          layerId: coupon.layerIds[layer],
+          rank,
+          share,
+          spread: 1,
+          hex,
+          labL: 50,
+          labA: 0,
+          labB: 0,
+          oklabL: 0.5,
+          oklabA: 0,
+          oklabB: 0,
+        })
+        .$returningId();
+      return row.id;
+    };
+    await cluster(0, 1, 0.3, '#6a5030');
+    const steelDominant = await cluster(0, 0, 0.6, '#4a3a7a');
+    const nickelDominant = await cluster(1, 0, 0.7, '#c9b07a');
+    await cluster(1, 1, 0.2, '#a09070');
+
+    const query = libraryPickQuery({ ...noLibraryFilters, pairA: 'steel-15n20', pairB: 'steel-1084', process: 'forge', tempMin: '286', tempMax: '288' });
+    const response = await api(`/api/coupons?${query}`, { jar: jars.owner });
+    expect(response.status).toBe(200);
+    const body = (await response.json()) as { coupons: (LibraryCouponAnswer & { id: number })[] };
+    const found = body.coupons.find((listed) => listed.id === coupon.id);
+    expect(found?.dominantSwatches.map((swatch) => [swatch.position, swatch.swatchId, swatch.hex])).toEqual([
+      [0, steelDominant, '#4a3a7a'],
+      [1, nickelDominant, '#c9b07a'],
+    ]);
+    // Every coupon the filters found is of the pair, forged, at 286–288 °C.
+    for (const listed of body.coupons as unknown as { process: string; temperatureC: number; layers: { alloy: string }[] }[]) {
+      expect(listed.process).toBe('forge');
+      expect(listed.layers.map((layer) => layer.alloy).sort()).toEqual([...layers].sort());
+      expect(listed.temperatureC).toBeGreaterThanOrEqual(286);
+      expect(listed.temperatureC).toBeLessThanOrEqual(288);
+    }
+
+    const picks = libraryPicks([found!]);
+    expect(picks.map((pick) => pick.couponTitle)).toEqual([
+      expect.stringContaining('1084 carbon steel (287 °C, 5 min)'),
+      expect.stringContaining('15N20 nickel steel (287 °C, 5 min)'),
+    ]);
+    const id = await newSheet({ title: 'Pattern-welded temper', audience: 'public' });
+    expect((await patch(id, { items: picks.map((pick) => swatchItem(pick.swatchId)) })).status).toBe(200);
+    const saved = await read(id, jars.owner);
+    expect(saved.entries.map((entry) => (entry.kind === 'swatch' ? entry.hex : entry.text))).toEqual(['#4a3a7a', '#c9b07a']);
+  });
+
+  it('a pair with one alloy chosen is refused, naming the missing one', async () => {
+    const response = await api(`/api/coupons?${libraryPickQuery({ ...noLibraryFilters, pairA: 'steel-1084' })}`, { jar: jars.owner });
+    expect(response.status).toBe(400);
+    expect(((await response.json()) as { field: string }).field).toBe('pairB');
+  });
+});
+
+describe('the predicted colour beside a swatch', () => {
+  interface Predicted {
+    kind: 'swatch';
+    swatchId: number;
+    prediction: { hex: string; name: string } | null;
+  }
+
+  /** What the heat planner tells a visitor for this heat in air: the reference data, no library fit. */
+  async function plannerSays(alloy: string, temperatureC: number, holdMinutes: number) {
+    const response = await api('/api/tint/predict', { json: { alloy, process: 'heat', temperatureC, holdMinutes, atmosphere: 'air' } });
+    expect(response.status).toBe(200);
+    const body = (await response.json()) as { outcome: string; colour: { hex: string; name: string } };
+    expect(body.outcome).toBe('prediction');
+    return body.colour;
+  }
+
+  it('uses each layer’s own alloy on a laminate, as the heat planner predicts it for that alloy and heat', async () => {
+    // A titanium / 1084 laminate at 320 °C for 10 minutes: the steel sits in its temper range
+    // (blue, common practice), the titanium barely tints at all — two clearly different answers.
+    const layers = ['ti-grade-2', 'steel-1084'];
+    const coupon = await insertCoupon(db, demo.instructor, layers, 'public');
+    couponIds.push(coupon.id);
+    await db.update(coupons).set({ temperatureC: 320, holdSeconds: 600, atmosphere: 'air' }).where(eq(coupons.id, coupon.id));
+    const alloyRows = await db.select({ id: alloys.id, slug: alloys.slug }).from(alloys).where(inArray(alloys.slug, layers));
+    const alloyId = (slug: string) => alloyRows.find((row) => row.slug === slug)!.id;
+    const [photo] = await db
+      .insert(photos)
+      .values({
+        couponId: coupon.id,
+        ownerId: await userIdOf(db, demo.instructor),
+        originalKey: 'x',
+        displayKey: 'x',
+        thumbKey: 'x',
+        contentType: 'image/jpeg',
+        byteSize: 1,
+        width: 1,
+        height: 1,
+      })
+      .$returningId();
+    const swatchOf = async (layerId: number | null, slug: string | null, hex: string) => {
+      const [row] = await db
+        .insert(swatches)
+        .values({
+          photoId: photo.id,
+          couponId: coupon.id,
+          layerId,
+          alloyId: slug ? alloyId(slug) : null,
+          rank: 0,
+          share: 0.9,
+          spread: 1,
+          hex,
+          labL: 50,
+          labA: 0,
+          labB: 0,
+          oklabL: 0.5,
+          oklabA: 0,
+          oklabB: 0,
+        })
+        .$returningId();
+      return row.id;
+    };
+    const titanium = await swatchOf(coupon.layerIds[0], 'ti-grade-2', '#9a948a');
+    const steel = await swatchOf(coupon.layerIds[1], 'steel-1084', '#3a4f8a');
+    const wholePhoto = await swatchOf(null, null, '#6a6a6a');
+
+    const id = await newSheet({ title: 'Laminate layers', audience: 'public', showPrediction: true });
+    expect((await patch(id, { items: [titanium, steel, wholePhoto].map(swatchItem) })).status).toBe(200);
+    const entries = (await read(id, jars.owner)).entries as unknown as Predicted[];
+    const bySwatch = new Map(entries.map((entry) => [entry.swatchId, entry.prediction]));
+
+    const [tiPlanned, steelPlanned] = await Promise.all([plannerSays('ti-grade-2', 320, 10), plannerSays('steel-1084', 320, 10)]);
+    expect(tiPlanned.hex).not.toBe(steelPlanned.hex);
+    expect(bySwatch.get(titanium)).toMatchObject({ hex: tiPlanned.hex, name: tiPlanned.name });
+    expect(bySwatch.get(steel)).toMatchObject({ hex: steelPlanned.hex, name: steelPlanned.name });
+    // A swatch of the whole photo names no layer: which alloy's band it should sit beside is unknown.
+    expect(bySwatch.get(wholePhoto)).toBeNull();
+  });
+
+  it('gives none for a heat under argon, where the reference data (all heats in air) do not apply', async () => {
+    const coupon = await couponWithSwatches(demo.instructor, 'public', ['#8c7a5a']);
+    await db.update(coupons).set({ temperatureC: 320, holdSeconds: 600, atmosphere: 'argon' }).where(eq(coupons.id, coupon.couponId));
+    const id = await newSheet({ title: 'Argon', audience: 'public', showPrediction: true });
+    expect((await patch(id, { items: [swatchItem(coupon.swatchIds[0])] })).status).toBe(200);
+    const [entry] = (await read(id, jars.owner)).entries as unknown as Predicted[];
+    expect(entry.prediction).toBeNull();
   });
 });
 

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, inArray, or, sql } from 'drizzle-orm';
-import { classes, colourSheetItems, colourSheets, coupons, swatches, users, type SheetSwatchSnapshot } from '../../../../db/schema';
+import { alloys, classes, colourSheetItems, colourSheets, coupons, swatches, users, type SheetSwatchSnapshot } from '../../../../db/schema';
 import type { CreateSheetInput, SheetItemInput, UpdateSheetInput } from '~/lib/sheets/requests';
 import { db } from '../db';
 import type { Viewer } from '../visibility';
@@ -52,6 +52,22 @@ export async function listSheets(viewer: Viewer | null, classIds: ReadonlySet<nu
     .limit(limit);
 }
 
+/** A class's sheets for its page: published ones, and drafts too for those who manage it. */
+export async function sheetsOfClass(classId: number, withDrafts: boolean) {
+  return db()
+    .select({
+      id: colourSheets.id,
+      title: colourSheets.title,
+      status: colourSheets.status,
+      publishedAt: colourSheets.publishedAt,
+      updatedAt: colourSheets.updatedAt,
+    })
+    .from(colourSheets)
+    .where(and(eq(colourSheets.classId, classId), withDrafts ? undefined : eq(colourSheets.status, 'published')))
+    .orderBy(desc(colourSheets.updatedAt), desc(colourSheets.id))
+    .limit(50);
+}
+
 export async function createSheet(ownerId: string, input: CreateSheetInput): Promise<number> {
   const [result] = await db()
     .insert(colourSheets)
@@ -76,6 +92,9 @@ export interface SwatchSource {
   holdSeconds: number | null;
   volts: number | null;
   process: string;
+  atmosphere: 'air' | 'argon' | 'other';
+  /** The alloy of the layer the swatch was measured on (null for a whole-photo swatch). */
+  layerAlloy: string | null;
 }
 
 export async function swatchSources(swatchIds: number[]): Promise<Map<number, SwatchSource>> {
@@ -96,9 +115,12 @@ export async function swatchSources(swatchIds: number[]): Promise<Map<number, Sw
       holdSeconds: coupons.holdSeconds,
       volts: coupons.volts,
       process: coupons.process,
+      atmosphere: coupons.atmosphere,
+      layerAlloy: alloys.slug,
     })
     .from(swatches)
     .innerJoin(coupons, eq(coupons.id, swatches.couponId))
+    .leftJoin(alloys, eq(alloys.id, swatches.alloyId))
     .where(inArray(swatches.id, [...new Set(swatchIds)]));
   for (const { labL, labA, labB, ...row } of rows) found.set(row.swatchId, { ...row, lab: [labL, labA, labB] });
   return found;

@@ -68,16 +68,27 @@ export function audienceMaySee(source: SwatchSource, audience: SheetAudience, sh
   return source.visibility === 'members' || sharedCoupons.has(source.couponId);
 }
 
-function predictionFor(heat: SheetHeat, alloySlugs: string[]): SheetPrediction | null {
-  if (heat.process === 'anodize' || heat.temperatureC === null || heat.holdSeconds === null || alloySlugs.length !== 1) return null;
-  const slug = alloySlugs[0];
-  if (heatUnavailableReason(slug)) return null;
+/**
+ * The heat planner's band for the swatch's own heat, in air, from the reference data (what the
+ * planner tells a visitor). The alloy is the one of the layer the swatch was measured on, so each
+ * layer of a laminate gets its own; a whole-photo swatch of a laminate names no layer and gets none.
+ */
+function predictionFor(heat: SheetHeat, source: SwatchSource, couponAlloys: string[]): SheetPrediction | null {
+  if (heat.process === 'anodize' || source.atmosphere !== 'air' || heat.temperatureC === null || heat.holdSeconds === null) return null;
+  const slug = source.layerAlloy ?? (couponAlloys.length === 1 ? couponAlloys[0] : null);
+  if (slug === null || heatUnavailableReason(slug)) return null;
   try {
     const layer = predictLayer(slug, heat.temperatureC, heat.holdSeconds / 60);
     return { hex: layer.hex, name: layer.name, note: layer.extrapolated ? 'model, outside its reference range' : 'model' };
   } catch {
     return null;
   }
+}
+
+/** The alloy line of a swatch: the coupon's alloys, or on a laminate the one layer it was measured on. */
+function alloysNamed(couponLayers: { alloy: string; alloyName: string }[], layerAlloy: string | null): string[] {
+  const layer = couponLayers.length > 1 && layerAlloy ? couponLayers.find((each) => each.alloy === layerAlloy) : undefined;
+  return layer ? [`${layer.alloyName} layer`] : couponLayers.map((each) => each.alloyName);
 }
 
 export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise<SheetView> {
@@ -110,7 +121,7 @@ export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise
           holdSeconds: source.holdSeconds,
           volts: source.volts,
           process: source.process,
-          alloys: couponLayers.map((layer) => layer.alloyName),
+          alloys: alloysNamed(couponLayers, source.layerAlloy),
         }
       : { temperatureC: null, holdSeconds: null, process: snapshot?.process ?? 'oven', alloys: [] };
     entries.push({
@@ -126,9 +137,10 @@ export async function sheetView(sheet: SheetRow, viewer: Viewer | null): Promise
       ...hidden,
       lines: available ? heatLines(heat, hidden, sheet.units) : [],
       prediction:
-        available && sheet.showPrediction
+        available && source && sheet.showPrediction
           ? predictionFor(
               heat,
+              source,
               couponLayers.map((layer) => layer.alloy),
             )
           : null,
