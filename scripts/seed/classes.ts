@@ -17,11 +17,16 @@ export const demoClass = {
   students: ['member@oxbloom.test', 'wren@oxbloom.test', 'jory@oxbloom.test'],
   /** Invited, not joined yet (no account). */
   pending: 'pip.saltmarsh@oxbloom.test',
-  /** Coupons each student shares (their members-only and public ones, oldest first). */
+  /**
+   * Coupons each student shares: their members-only and public test-series coupons of the class's ladders
+   * (the 1084 / 15N20 billet, titanium Grade 2 sheet and the Grade 2 / Grade 5 laminate), taking
+   * each ladder in turn, coolest first.
+   */
   sharedPerStudent: 4,
+  ladders: ['steel-1084+steel-15n20', 'ti-grade-2', 'ti-grade-2+ti-grade-5'],
 };
 
-export async function seedDemoClass(tx: Transaction, idByEmail: Map<string, string>) {
+export async function seedDemoClass(tx: Transaction, idByEmail: Map<string, string>, seriesTitles: ReadonlySet<string>) {
   const instructorId = idByEmail.get(demoClass.instructor)!;
   const [{ id: classId }] = await tx
     .insert(classes)
@@ -38,13 +43,19 @@ export async function seedDemoClass(tx: Transaction, idByEmail: Map<string, stri
   });
   const studentIds = demoClass.students.map((email) => idByEmail.get(email)!);
   const candidates = await tx
-    .select({ id: coupons.id, ownerId: coupons.ownerId })
+    .select({ id: coupons.id, ownerId: coupons.ownerId, layerKey: coupons.layerKey, title: coupons.title })
     .from(coupons)
-    .where(and(inArray(coupons.ownerId, studentIds), ne(coupons.visibility, 'private')))
-    .orderBy(coupons.id);
+    .where(and(inArray(coupons.ownerId, studentIds), ne(coupons.visibility, 'private'), inArray(coupons.layerKey, demoClass.ladders)))
+    .orderBy(coupons.temperatureC, coupons.holdSeconds, coupons.id)
+    // Test-series coupons only: every one of them is photographed, so each share has swatches.
+    .then((rows) => rows.filter((row) => seriesTitles.has(row.title)));
   for (const studentId of studentIds) {
-    const theirs = candidates.filter((coupon) => coupon.ownerId === studentId).slice(0, demoClass.sharedPerStudent);
-    if (theirs.length) await tx.insert(classCoupons).values(theirs.map((coupon) => ({ classId, couponId: coupon.id })));
+    const byLadder = demoClass.ladders.map((ladder) => candidates.filter((coupon) => coupon.ownerId === studentId && coupon.layerKey === ladder));
+    const theirs: number[] = [];
+    for (let round = 0; theirs.length < demoClass.sharedPerStudent && byLadder.some((ladder) => ladder.length > round); round += 1) {
+      for (const ladder of byLadder) if (ladder[round] && theirs.length < demoClass.sharedPerStudent) theirs.push(ladder[round].id);
+    }
+    if (theirs.length) await tx.insert(classCoupons).values(theirs.map((couponId) => ({ classId, couponId })));
   }
   return classId;
 }

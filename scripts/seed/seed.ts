@@ -11,9 +11,11 @@ import { demoCoupons } from './coupons';
 import { seedDemoPhotos } from './photos';
 import { seriesCoupons } from './series';
 import { seedDemoClass } from './classes';
+import { seedDemoSheet } from './sheets';
 
 const DEMO_MARKER = 'demo-seeded';
 const PHOTOS_MARKER = 'demo-photos-seeded';
+const SHEET_MARKER = 'demo-sheet-seeded';
 
 /** Everyone in the demo but the admin owns coupons. */
 const demoOwners = () => demoPeople.filter((person) => person.role !== 'admin').map((person) => person.email);
@@ -50,14 +52,15 @@ async function seedDemoRecords(db: Database) {
       );
     const idByEmail = new Map(people.map((person) => [person.email, person.id]));
     const owners = demoOwners();
-    for (const demo of [...demoCoupons(owners), ...seriesCoupons(owners)]) {
+    const series = seriesCoupons(owners);
+    for (const demo of [...demoCoupons(owners), ...series]) {
       const [{ id }] = await tx
         .insert(coupons)
         .values({ ...demo.coupon, ownerId: idByEmail.get(demo.ownerEmail)!, layerKey: layerKeyOf(demo.layers) })
         .$returningId();
       await tx.insert(couponLayers).values(demo.layers.map((slug, position) => ({ couponId: id, position, alloyId: alloyIdBySlug.get(slug)! })));
     }
-    await seedDemoClass(tx, idByEmail);
+    await seedDemoClass(tx, idByEmail, new Set(series.map((demo) => demo.coupon.title)));
     await tx.insert(appSettings).values({ key: DEMO_MARKER, value: new Date().toISOString() });
   });
 }
@@ -83,6 +86,12 @@ async function main() {
       await db.insert(appSettings).values({ key: PHOTOS_MARKER, value: new Date().toISOString() });
     } else {
       console.log('[oxbloom] demo already seeded; kept as it is.');
+    }
+    // The instructor's colour sheet places measured swatches, so it follows the photos.
+    if (!(await hasMarker(db, SHEET_MARKER))) {
+      const sheetId = await seedDemoSheet(db);
+      if (sheetId !== null) console.log(`[oxbloom] demo colour sheet ${sheetId} published to the demo class.`);
+      await db.insert(appSettings).values({ key: SHEET_MARKER, value: new Date().toISOString() });
     }
   } finally {
     await pool.end();

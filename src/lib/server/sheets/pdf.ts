@@ -90,17 +90,18 @@ function drawTitleBlock(doc: PDFKit.PDFDocument, sheet: SheetView, width: number
     `Temperatures in ${sheet.units === 'f' ? '°F' : '°C'}`,
     sheet.showPrediction ? 'Small squares: the model for the same heat' : null,
   ].filter(Boolean);
-  doc
-    .font('sans')
-    .fontSize(8.5)
-    .fillColor(MUTED)
-    .text(meta.join('  ·  '), margin, margin + 30, { width: inner, height: 12, ellipsis: true, lineBreak: false });
+  // Up to two lines of who and what, then the introduction under them.
+  doc.font('sans').fontSize(8.5).fillColor(MUTED);
+  const metaText = meta.join('  ·  ');
+  const metaHeight = Math.min(doc.heightOfString(metaText, { width: inner }), 24);
+  doc.text(metaText, margin, margin + 30, { width: inner, height: 24, ellipsis: true });
   if (sheet.intro) {
+    const introTop = margin + 30 + metaHeight + 8;
     doc
       .font('serif')
       .fontSize(10)
       .fillColor(INK)
-      .text(sheet.intro, margin, margin + 48, { width: inner, height: titleBlockHeight - 64, ellipsis: true, lineGap: 1.5 });
+      .text(sheet.intro, margin, introTop, { width: inner, height: margin + titleBlockHeight - 14 - introTop, ellipsis: true, lineGap: 1.5 });
   }
   doc
     .moveTo(margin, margin + titleBlockHeight - 10)
