@@ -2,9 +2,9 @@ import { useState, type SyntheticEvent } from 'react';
 import { callApi } from '~/components/api-client';
 
 /** Starts a draft sheet and opens its builder. */
-export default function NewSheetForm({ classes }: { classes: { id: number; name: string }[] }) {
+export default function NewSheetForm({ classes, initialClassId }: { classes: { id: number; name: string }[]; initialClassId: number | null }) {
   const [title, setTitle] = useState('');
-  const [classId, setClassId] = useState<number | null>(classes[0]?.id ?? null);
+  const [classId, setClassId] = useState<number | null>(initialClassId);
   const [error, setError] = useState('');
   async function submit(event: SyntheticEvent) {
     event.preventDefault();
