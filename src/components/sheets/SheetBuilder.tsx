@@ -448,7 +448,7 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
           </div>
         )}
         {source === 'class' && !settings.classId && <p className="text-sm text-ash-600">Choose the sheet’s class to see what its students shared.</p>}
-        <ul className="grid max-h-[32rem] grid-cols-2 gap-2 overflow-y-auto lg:max-h-[calc(100vh-14rem)]">
+        <ul className="grid max-h-[32rem] grid-cols-1 gap-2 overflow-y-auto sm:grid-cols-2 lg:max-h-[calc(100vh-14rem)] lg:grid-cols-1">
           {picks.map((pick) => (
             <li key={pick.swatchId}>
               <button
@@ -458,7 +458,7 @@ export default function SheetBuilder({ sheetId, initial, status: initialStatus, 
                 aria-label={`Add ${pick.hex} from ${pick.couponTitle}`}
               >
                 <span className="h-8 w-8 shrink-0 rounded" style={{ background: pick.hex }} aria-hidden="true" />
-                <span className="min-w-0 truncate">{pick.couponTitle}</span>
+                <span className="line-clamp-2 min-w-0">{pick.couponTitle}</span>
               </button>
             </li>
           ))}

@@ -59,9 +59,11 @@ export function libraryPicks(coupons: readonly LibraryCouponAnswer[]): LibraryPi
       .filter(Boolean)
       .join(', ');
     const laminate = coupon.dominantSwatches.length > 1;
+    // A title that already names its temperature ("… 280 °C, 10 min") is not told it twice.
+    const named = coupon.temperatureC !== null && coupon.title.includes(`${Math.round(coupon.temperatureC)} °C`);
     return coupon.dominantSwatches.map((swatch) => {
       const alloy = laminate ? ` · ${findAlloy(swatch.alloy)?.name ?? swatch.alloy}` : '';
-      return { swatchId: swatch.swatchId, hex: swatch.hex, couponTitle: `${coupon.title}${alloy}${heat ? ` (${heat})` : ''}` };
+      return { swatchId: swatch.swatchId, hex: swatch.hex, couponTitle: `${coupon.title}${alloy}${heat && !named ? ` (${heat})` : ''}` };
     });
   });
 }

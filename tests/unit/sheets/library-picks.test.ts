@@ -30,11 +30,19 @@ describe('the sheet builder’s library picker', () => {
       },
       { title: 'Grade 2 sheet', temperatureC: null, holdSeconds: null, dominantSwatches: [{ swatchId: 9, position: 0, alloy: 'ti-grade-2', hex: '#bdab88' }] },
       { title: 'Not photographed', temperatureC: 300, holdSeconds: 60, dominantSwatches: [] },
+      {
+        title: 'Ladder, 320 °C, 10 min',
+        temperatureC: 320,
+        holdSeconds: 600,
+        dominantSwatches: [{ swatchId: 10, position: 0, alloy: 'steel-o1', hex: '#96b1ba' }],
+      },
     ]);
     expect(picks).toEqual([
       { swatchId: 7, hex: '#02457f', couponTitle: 'Billet offcut · 1084 carbon steel (280 °C, 10 min)' },
       { swatchId: 8, hex: '#390256', couponTitle: 'Billet offcut · 15N20 nickel steel (280 °C, 10 min)' },
       { swatchId: 9, hex: '#bdab88', couponTitle: 'Grade 2 sheet' },
+      // The heat is in the title already.
+      { swatchId: 10, hex: '#96b1ba', couponTitle: 'Ladder, 320 °C, 10 min' },
     ]);
   });
 });
