@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { baseUrl, clientAddress } from '../support/app';
 import { demo, demoPassword } from '../support/auth';
-import { keepScreenshotOnFailure, launchBrowser } from '../support/browser';
+import { launchBrowser } from '../support/browser';
 import { linkIn, waitForMail } from '../support/mail';
 import { couponScene, encodeJpeg, renderScene, TINTS } from '../fixtures/synthetic-photos';
 import type { Rectangle } from '~/lib/photos';
@@ -120,7 +120,6 @@ describe.each(widths)('a class and its colour sheet in Chromium, at a $label’s
   it(
     'the instructor starts a class and invites a new student through the class page',
     async () => {
-      keepScreenshotOnFailure(instructor, `class-${label}`);
       await instructorBrowser.context.clearCookies();
       await signIn(instructor, demo.instructor);
       await instructor.goto(`${baseUrl}/classes/new`);
@@ -150,7 +149,6 @@ describe.each(widths)('a class and its colour sheet in Chromium, at a $label’s
   it(
     'the student signs up from the mailed link and lands in the class',
     async () => {
-      keepScreenshotOnFailure(student, `class-${label}`);
       expect(classPath).not.toBe('');
       const mail = await waitForMail(studentEmail, 'invites you to the class');
       // The invitation names the class and the instructor (the demo's invented instructor).
@@ -179,7 +177,6 @@ describe.each(widths)('a class and its colour sheet in Chromium, at a $label’s
   it(
     'the student logs a coupon with a photo and shares it with the class through the coupon page',
     async () => {
-      keepScreenshotOnFailure(student, `class-${label}`);
       await student.goto(`${baseUrl}/coupons/new`);
       await hydrated(student);
       await student.getByLabel('Title').fill(couponTitle);
@@ -226,7 +223,6 @@ describe.each(widths)('a class and its colour sheet in Chromium, at a $label’s
   it(
     'the instructor builds a sheet with the swatch, arranges it by keyboard, publishes it and downloads the PDF',
     async () => {
-      keepScreenshotOnFailure(instructor, `class-${label}`);
       expect(swatchHex).not.toBe('');
       await instructor.goto(`${baseUrl}/sheets/new`);
       await hydrated(instructor);
@@ -291,7 +287,6 @@ describe.each(widths)('a class and its colour sheet in Chromium, at a $label’s
   it(
     'the student sees the published sheet and gets its Letter PDF',
     async () => {
-      keepScreenshotOnFailure(student, `class-${label}`);
       expect(sheetPath).not.toBe('');
       // From the class page's list of sheets.
       await student.goto(`${baseUrl}${classPath}`);
