@@ -12,6 +12,7 @@ import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { securityHeaders } from './lib/server/security-headers';
 import { sessionUserOf } from './lib/server/session';
 import { startUploadSweeper } from './lib/server/photos/uploads-ledger';
+import { answerDatabaseOutage } from './lib/server/database-outage';
 
 // A missing or malformed setting stops the server before it answers anyone, naming the setting.
 config();
@@ -166,4 +167,14 @@ const startTimers = defineMiddleware((_context, next) => {
   return next();
 });
 
-export const onRequest = sequence(startTimers, secureHeaders, jsonErrors, checkOrigin, limitBodies, limitSignIn, loadSession, cacheVisitorPages);
+export const onRequest = sequence(
+  startTimers,
+  secureHeaders,
+  jsonErrors,
+  answerDatabaseOutage,
+  checkOrigin,
+  limitBodies,
+  limitSignIn,
+  loadSession,
+  cacheVisitorPages,
+);
