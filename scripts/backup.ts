@@ -43,7 +43,7 @@ async function dumpDatabase(target: Target, file: string): Promise<void> {
       dump.on('error', reject);
       dump.on('close', resolve);
     }),
-    new Promise((resolve) => out.on('finish', resolve)),
+    new Promise<void>((resolve) => out.on('finish', () => resolve())),
   ]);
   if (code !== 0) throw new SetupError(`mariadb-dump failed on ${target.label}: ${errors.trim().split('\n').pop() ?? `exit ${code}`}`);
 }

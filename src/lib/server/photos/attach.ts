@@ -2,10 +2,10 @@ import { checkRegions, TOO_BIG } from '~/lib/photo-requests';
 import { MAX_UPLOAD_BYTES, type PhotoContentType, type RegionInput } from '~/lib/photos';
 import { db } from '~/lib/server/db';
 import { Refused } from '~/lib/server/refusal';
-import { deleteObjects, getObject, headObject } from '~/lib/server/storage';
+import { deleteObjects, getObject, headObject, listKeys } from '~/lib/server/storage';
 import { decodePhoto, ImageRejected, inDecodeTurn } from './decode';
 import { deriveFiles, type DerivedFiles } from './derived-files';
-import { isUsersKey } from './keys';
+import { folderOf, isUsersKey } from './keys';
 import { analyseRegions, type PhotoAnalysis } from './measure';
 import { isMissingParent, lockCoupon, photoTransaction, recordPhoto, type DecodedFacts } from './records';
 import { storeFiles } from './store';
@@ -115,6 +115,9 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
   });
 
   const files = await storeFiles({ key, byteSize: bytes.length, contentType: developed.contentType }, developed.derived);
+  // Files an earlier attempt at this upload stored before it died (its process killed between
+  // storing and committing): once this attempt settles the entry, nothing else would name them.
+  const strays = (await listKeys(folderOf(key))).filter((stray) => stray !== key && !files.written.includes(stray));
   const couponGone = new Refused(404, 'That coupon was not found.');
   let photoId: number;
   try {
@@ -124,6 +127,8 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
       // The uploaded file still carries its GPS position: its entry stays until the file is deleted
       // below, and while its URL may still be used, so a file sent to it again is swept too.
       if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: declared.contentType, byteSize: bytes.length }, new Date());
+      // No URL was ever issued for them: an entry each, gone once they are deleted (below, or by the sweep).
+      for (const stray of strays) await forgetLater(tx, { key: stray, ownerId, contentType: 'application/octet-stream', byteSize: 0 }, new Date(0));
       return recordPhoto(tx, { couponId, ownerId, decoded: developed, files, regions, analysis: developed.analysis });
     });
   } catch (error) {
@@ -135,9 +140,10 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
     if (isMissingParent(error)) throw new Refused(400, 'A layer of those regions is no longer part of the coupon.', 'regions');
     throw error;
   }
-  if (files.originalKey !== key) {
-    await deleteObjects([key]).then(
-      () => dropEntry(key),
+  const leftovers = files.originalKey !== key ? [key, ...strays] : strays;
+  if (leftovers.length) {
+    await deleteObjects(leftovers).then(
+      () => Promise.all(leftovers.map((leftover) => dropEntry(leftover))),
       () => undefined,
     );
   }
