@@ -180,7 +180,12 @@ describe('SIGKILL during a photo attach', () => {
     // Once every entry is stale and its URL can no longer be used, the sweep leaves only the photos' files.
     const longAgo = new Date(Date.now() - 3 * 3600_000);
     await db.update(uploads).set({ expiresAt: longAgo, createdAt: longAgo }).where(eq(uploads.ownerId, account.id));
-    const sweep = spawnSync(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'tests/support/sweep-process.ts', 'now'], { encoding: 'utf8' });
+    const sweep = spawnSync(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'tests/support/sweep-process.ts', 'now'], {
+      encoding: 'utf8',
+      // The sweep process waits for a line before it sweeps.
+      input: 'go\n',
+      timeout: 120_000,
+    });
     expect(sweep.status, sweep.stderr).toBe(0);
     const after = await checkInvariants(account.id);
     expect(after.ledger.size).toBe(0);

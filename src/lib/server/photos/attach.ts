@@ -30,6 +30,9 @@ const NOT_ARRIVED = 'The photo has not arrived in storage. Upload it to the URL 
 const sizeMismatch = (stored: number, declared: number) =>
   `The file in storage has ${stored} bytes, not the ${declared} bytes declared. Upload the photo again.`;
 
+/** The issue time recorded for files no URL was issued for: long past (and inside MariaDB's TIMESTAMP range, which starts in 1970). */
+const NO_URL_ISSUED = new Date(Date.UTC(2000, 0, 1));
+
 /** Storage's content type without parameters, in lower case. */
 const bareType = (type: string | undefined) => (type ?? '').split(';')[0].trim().toLowerCase();
 
@@ -128,7 +131,7 @@ export async function attachPhoto(input: AttachInput): Promise<number> {
       // below, and while its URL may still be used, so a file sent to it again is swept too.
       if (files.originalKey !== key) await forgetLater(tx, { key, ownerId, contentType: declared.contentType, byteSize: bytes.length }, new Date());
       // No URL was ever issued for them: an entry each, gone once they are deleted (below, or by the sweep).
-      for (const stray of strays) await forgetLater(tx, { key: stray, ownerId, contentType: 'application/octet-stream', byteSize: 0 }, new Date(0));
+      for (const stray of strays) await forgetLater(tx, { key: stray, ownerId, contentType: 'application/octet-stream', byteSize: 0 }, NO_URL_ISSUED);
       return recordPhoto(tx, { couponId, ownerId, decoded: developed, files, regions, analysis: developed.analysis });
     });
   } catch (error) {
