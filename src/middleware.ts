@@ -8,6 +8,7 @@ import { limits } from './lib/server/limits';
 import { hitAll, refund, type Limit } from './lib/server/rate-limit';
 import { problem, tooManyAttemptsProblem, wantsHtml } from './lib/server/http';
 import { BoundedCache, cachedBody, sendCached, type CachedBody } from './lib/server/http-cache';
+import { libraryVersion } from './lib/server/library/recent';
 import { MAX_BODY_LABEL, bodyTooLarge } from './lib/server/request-limits';
 import { securityHeaders } from './lib/server/security-headers';
 import { sessionUserOf } from './lib/server/session';
@@ -76,22 +77,28 @@ const loadSession = defineMiddleware(async (context, next) => {
 /**
  * Pages that are a pure function of their address for a visitor (the same HTML for everyone signed
  * out): rendered once per process and address, and sent with an ETag, so a repeat visit costs a
- * 304. Signed-in people get the page rendered for them, never kept by a cache (`secureHeaders`).
+ * 304. The front page also shows the library's recent coupons, so its copy is kept with the
+ * library's version (lib/server/library/recent.ts) read before it was rendered, and sent only
+ * while the version is still that one: a write through the app, in any process, renders it anew.
+ * Signed-in people get the page rendered for them, never kept by a cache (`secureHeaders`).
  */
 const VISITOR_PAGES = new Set(['/tint-ladder']);
+const LIBRARY_PAGES = new Set(['/']);
 const VISITOR_PAGE_CACHE_CONTROL = 'public, no-cache';
-const visitorPages = new BoundedCache<string, CachedBody>(128);
+const visitorPages = new BoundedCache<string, { page: CachedBody; libraryVersion?: string }>(128);
 
 const cacheVisitorPages = defineMiddleware(async (context, next) => {
   const { request, url } = context;
-  if (context.locals.user || request.method !== 'GET' || !VISITOR_PAGES.has(url.pathname)) return next();
+  const followsLibrary = LIBRARY_PAGES.has(url.pathname);
+  if (context.locals.user || request.method !== 'GET' || !(followsLibrary || VISITOR_PAGES.has(url.pathname))) return next();
   const key = `${url.pathname}${url.search}`;
+  const version = followsLibrary ? await libraryVersion() : undefined;
   const known = visitorPages.get(key);
-  if (known) return sendCached(request, known, VISITOR_PAGE_CACHE_CONTROL, { vary: 'cookie' });
+  if (known && known.libraryVersion === version) return sendCached(request, known.page, VISITOR_PAGE_CACHE_CONTROL, { vary: 'cookie' });
   const response = await next();
   if (response.status !== 200 || response.headers.has('set-cookie')) return response;
   const page = cachedBody(await response.text(), response.headers.get('content-type') ?? 'text/html');
-  visitorPages.set(key, page);
+  visitorPages.set(key, { page, libraryVersion: version });
   return sendCached(request, page, VISITOR_PAGE_CACHE_CONTROL, { vary: 'cookie' });
 });
 

@@ -1,9 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { differenceCiede2000, formatHex } from 'culori';
-import { eq, inArray } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 
 /**
@@ -85,6 +86,7 @@ async function insertCoupon(spec: Spec): Promise<number> {
       { ...base, rank: 1, isMean: false, share: 0.7, hex: hexOf(layer.lab), labL: layer.lab.l, labA: layer.lab.a, labB: layer.lab.b },
     ]);
   }
+  await couponsChanged(db, [id]);
   return id;
 }
 
@@ -129,7 +131,7 @@ beforeAll(async () => {
   ids.secret = await insertCoupon({ owner: 'member2', visibility: 'private', title: SECRET_TITLE, layers: [{ alloy: 'ti-grade-2', lab: colours.gold }] });
   ids.members = await insertCoupon({ owner: 'member2', visibility: 'members', title: MEMBERS_TITLE, layers: [{ alloy: 'ti-grade-2', lab: colours.paleGold }] });
   ids.gone = await insertCoupon({ owner: 'member2', visibility: 'public', title: 'Compare fixture: deleted', layers: [{ alloy: 'ti-grade-2' }] });
-  await db.delete(coupons).where(eq(coupons.id, ids.gone));
+  await deleteCoupons(db, [ids.gone]);
   ids.anodized = await insertCoupon({
     owner: 'member',
     visibility: 'public',
@@ -140,7 +142,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  if (created.length) await db.delete(coupons).where(inArray(coupons.id, created));
+  await deleteCoupons(db, created);
   await pool.end();
 });
 

@@ -3,6 +3,7 @@ import { and, eq } from 'drizzle-orm';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { objectExists, putTestObject } from '../support/storage';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 
@@ -208,13 +209,14 @@ describe('changing and deleting', () => {
       oklabA: 0.02,
       oklabB: 0.1,
     });
+    await couponsChanged(db, [coupon.id]);
 
     expect((await api(`/api/coupons/${coupon.id}`, { method: 'PATCH', jar: member, json: { layers: ['ti-grade-23', 'ti-grade-5'] } })).status).toBe(200);
     const [grade23] = await db.select().from(alloys).where(eq(alloys.slug, 'ti-grade-23'));
     const kept = await db.select().from(swatches).where(eq(swatches.layerId, layer.id));
     expect(kept).toHaveLength(1);
     expect(kept[0].alloyId).toBe(grade23.id);
-    await db.delete(coupons).where(eq(coupons.id, coupon.id));
+    await deleteCoupons(db, [coupon.id]);
   });
 
   it('lets an admin change anyone’s coupon', async () => {

@@ -3,11 +3,12 @@
 // the page and the query module are checked against a reading of the tables written in the test.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import { createHash } from 'node:crypto';
 import { converter } from 'culori';
 import { api, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
-import { deleteCoupons } from '../fixtures/library-coupons';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 import { db as appDb } from '~/lib/server/db';
 import { recentPublicPairs, type RecentPair } from '~/lib/server/library/recent';
@@ -108,6 +109,8 @@ async function insertPairCoupon(ownerEmail: string, visibility: 'public' | 'memb
     result.dominant.push(large);
     result.means.push(mean);
   }
+  // As every writer of the library does: the front page keeps its recent coupons per library version.
+  await couponsChanged(db, [couponId]);
   inserted.push(result);
   return result;
 }
@@ -250,5 +253,49 @@ describe('the front page’s recent public coupons', () => {
     const library = await (await api(`/library?pair=${PAIR_KEY}`)).text();
     for (const coupon of publicCoupons) expect(library).toContain(`/coupons/${coupon.id}"`);
     for (const coupon of hidden) expect(library).not.toContain(`/coupons/${coupon.id}"`);
+  });
+
+  it('costs a visitor a 304 on a repeat while the library is unchanged', async () => {
+    // Other test files may write to the library meanwhile (a new ETag each time), so a few tries.
+    const statuses: number[] = [];
+    for (let attempt = 0; attempt < 5 && !statuses.includes(304); attempt += 1) {
+      const first = await api('/');
+      const etag = first.headers.get('etag');
+      expect(etag).toMatch(/^"[\w-]+"$/);
+      statuses.push((await api('/', { headers: { 'if-none-match': etag! } })).status);
+    }
+    expect(statuses).toContain(304);
+    // Source: RFC 9110 §8.8.3.3 — a strong validator names the exact bytes; ours is their digest.
+    const page = await api('/');
+    expect(page.headers.get('etag')).toBe(
+      `"${createHash('sha256')
+        .update(await page.text())
+        .digest('base64url')
+        .slice(0, 32)}"`,
+    );
+  });
+
+  it('shows a write through the app at once, to visitors and members: an edited heat, then a coupon made private', async () => {
+    const newest = publicCoupons.at(-1)!;
+    const chipOf = (html: string) => new RegExp(`href="/coupons/${newest.id}"[\\s\\S]*?</a>`).exec(html)?.[0] ?? '';
+    const visitorBefore = await api('/');
+    const etagBefore = visitorBefore.headers.get('etag')!;
+    expect(chipOf(await visitorBefore.text())).toContain('406 °C');
+    await api('/', { jar: jars.member }); // the member's page also read the library before the write
+
+    expect(
+      (await api(`/api/coupons/${newest.id}`, { method: 'PATCH', jar: jars.member, json: { temperatureC: 777, temperatureMethod: 'thermocouple' } })).status,
+    ).toBe(200);
+    const visitorAfter = await api('/', { headers: { 'if-none-match': etagBefore } });
+    expect(visitorAfter.status).toBe(200);
+    expect(chipOf(await visitorAfter.text())).toContain('777 °C');
+    expect(chipOf(await (await api('/', { jar: jars.member })).text())).toContain('777 °C');
+
+    expect((await api(`/api/coupons/${newest.id}`, { method: 'PATCH', jar: jars.member, json: { visibility: 'private' } })).status).toBe(200);
+    for (const jar of [undefined, jars.member, jars.admin]) {
+      const html = await (await api('/', { jar })).text();
+      expect(html).not.toContain(`href="/coupons/${newest.id}"`);
+      for (const hex of newest.dominant) expect(html).not.toContain(hex);
+    }
   });
 });

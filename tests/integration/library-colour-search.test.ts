@@ -4,6 +4,7 @@ import { eq, inArray, sql } from 'drizzle-orm';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 import { seededRandom } from '~/lib/random';
 // ΔE00 as checked against Sharma, Wu & Dalal (2005) Table 1 in tests/unit/colour/delta-e.test.ts.
@@ -111,10 +112,11 @@ beforeAll(async () => {
     rows.push({ ...rows[0], rank: 0, isMean: true, labL: centreLab.l, labA: centreLab.a, labB: centreLab.b, hex: CENTRE });
     await db.insert(swatches).values(rows);
   }
+  await couponsChanged(db, created);
 });
 
 afterAll(async () => {
-  if (created.length) await db.delete(coupons).where(inArray(coupons.id, created));
+  await deleteCoupons(db, created);
   await pool.end();
 });
 

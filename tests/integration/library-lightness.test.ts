@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq, inArray } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { api, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 import { db as appDb } from '~/lib/server/db';
 import { refreshCouponLightness } from '~/lib/server/library-versions';
@@ -65,6 +66,7 @@ async function insertCoupon(temperatureC: number, clusters: [number, number][], 
   }
   // What the photo writers do after writing swatches.
   await refreshCouponLightness(appDb(), id);
+  await couponsChanged(db, [id]);
   return id;
 }
 
@@ -102,7 +104,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  if (created.length) await db.delete(coupons).where(inArray(coupons.id, created));
+  await deleteCoupons(db, created);
   await pool.end();
 });
 

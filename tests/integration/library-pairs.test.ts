@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq, inArray, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 import { converter } from 'culori';
 import { bumpLibraryVersions } from '~/lib/server/library-versions';
@@ -92,6 +93,7 @@ async function insertCoupon(spec: Spec): Promise<number> {
       { ...base, rank: 1, isMean: false, share: 0.7, hex },
     ]);
   }
+  await couponsChanged(db, [id]);
   return id;
 }
 
@@ -134,7 +136,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  if (created.length) await db.delete(coupons).where(inArray(coupons.id, created));
+  await deleteCoupons(db, created);
   await pool.end();
 });
 
@@ -373,9 +375,8 @@ describe('the model’s bands in the matrix', () => {
         expect(layer.couponCount).toBeGreaterThanOrEqual(fittedBefore + MIN_LIBRARY_COUPONS);
       }
     } finally {
-      await db.delete(coupons).where(inArray(coupons.id, ids));
+      await deleteCoupons(db, ids);
       for (const id of ids) created.splice(created.indexOf(id), 1);
-      await bumpLibraryVersions(db, [await alloyIdOf(ALLOY)]);
     }
     expect(layersOf(await bands()).map((layer) => layer.couponCount)).toEqual(layersOf(before).map((layer) => layer.couponCount));
   });

@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq, inArray, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { api, newJar, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged, deleteCoupons } from '../fixtures/library-coupons';
 import { alloys, couponLayers, coupons, photos, swatches, users } from '../../db/schema';
 
 /**
@@ -88,6 +89,7 @@ async function insertCoupon(spec: Spec): Promise<number> {
       ]);
     }
   }
+  await couponsChanged(db, [id]);
   return id;
 }
 
@@ -126,7 +128,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  if (created.length) await db.delete(coupons).where(inArray(coupons.id, created));
+  await deleteCoupons(db, created);
   await pool.end();
 });
 

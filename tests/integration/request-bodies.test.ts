@@ -2,11 +2,13 @@
 // route accepts, and a cap on every string field.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import http from 'node:http';
+import net from 'node:net';
 import { eq } from 'drizzle-orm';
 import { coupons } from '../../db/schema';
 import { api, baseUrl, clientAddress, type Jar } from '../support/app';
 import { demo, signedIn } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { deleteCoupons } from '../fixtures/library-coupons';
 
 const { db, pool } = testDatabase();
 afterAll(() => pool.end());
@@ -117,10 +119,36 @@ describe('the body size cap', () => {
     expect(underBody.length).toBeLessThan(LIMIT);
     const accepted = await api('/api/coupons', { method: 'POST', jar: member, headers: { 'content-type': 'application/json' }, body: underBody });
     expect(accepted.status).toBe(201);
-    await db.delete(coupons).where(eq(coupons.id, (await accepted.json()).id));
+    await deleteCoupons(db, [(await accepted.json()).id]);
 
     const over = JSON.stringify({ ...under, padding: ' '.repeat(LIMIT) });
     expect((await api('/api/coupons', { method: 'POST', jar: member, headers: { 'content-type': 'application/json' }, body: over })).status).toBe(413);
+  });
+
+  it('takes no byte past a declared Content-Length as the body: what follows is read as the next request', async () => {
+    // Source: RFC 9112 §6.3 (a Content-Length gives the body's length; what follows is the next
+    // message) and Node's HTTP parser (llhttp), which skips blank lines before a request line. So a
+    // body within the cap by its Content-Length is not counted again (src/lib/server/request-limits.ts).
+    const title = `Declared length ${unique()}`;
+    const body = JSON.stringify(aCoupon(title));
+    const { host } = new URL(baseUrl);
+    const head = (method: string, path: string, extra: string) =>
+      `${method} ${path} HTTP/1.1\r\nHost: ${host}\r\nOrigin: ${baseUrl}\r\nCookie: ${cookieOf(member)}\r\nX-Forwarded-For: ${clientAddress}\r\n${extra}\r\n`;
+    // Twice the cap past the declared body; read as body, the JSON would have broken (400) or been too large (413).
+    const past = '\r\n'.repeat(LIMIT) + head('GET', '/api/health', 'Connection: close\r\n');
+    const raw = head('POST', '/api/coupons', `Content-Type: application/json\r\nContent-Length: ${Buffer.byteLength(body)}\r\n`) + body + past;
+    const answers = await new Promise<string>((resolve, reject) => {
+      const socket = net.connect(Number(new URL(baseUrl).port), new URL(baseUrl).hostname, () => socket.write(raw));
+      let received = '';
+      socket.setEncoding('utf8');
+      socket.on('data', (chunk) => (received += chunk));
+      socket.on('close', () => resolve(received));
+      socket.on('error', reject);
+    });
+    expect([...answers.matchAll(/^HTTP\/1\.1 (\d{3})/gm)].map((match) => match[1])).toEqual(['201', '200']);
+    const saved = await db.select().from(coupons).where(eq(coupons.title, title));
+    expect(saved).toHaveLength(1);
+    await deleteCoupons(db, [saved[0].id]);
   });
 
   it('caps form posts to pages too', async () => {

@@ -8,6 +8,7 @@ import { alloys, classes, classMembers, colourSheets, coupons, photos, swatches,
 import { api, newJar, type Jar } from '../support/app';
 import { confirmedAccount, demo, signedIn, type TestAccount } from '../support/auth';
 import { testDatabase } from '../support/database';
+import { couponsChanged } from '../fixtures/library-coupons';
 import { countMail, waitForMail } from '../support/mail';
 import { deleteTestCoupons, insertCoupon, userIdOf } from '../support/photos';
 import { libraryPickQuery, libraryPicks, noLibraryFilters, type LibraryCouponAnswer } from '~/lib/sheets/library-picks';
@@ -67,6 +68,7 @@ async function couponWithSwatches(ownerEmail: string, visibility: 'private' | 'm
       .$returningId();
     ids.push(row.id);
   }
+  await couponsChanged(db, [coupon.id]);
   return { couponId: coupon.id, swatchIds: ids };
 }
 
@@ -216,6 +218,7 @@ describe('a swatch whose coupon stops being shared', () => {
     const items = [kept, goingPrivate, deleted].map((coupon) => swatchItem(coupon.swatchIds[0]));
     expect((await patch(id, { items, status: 'published' })).status).toBe(200);
     await db.update(coupons).set({ visibility: 'private' }).where(eq(coupons.id, goingPrivate.couponId));
+    await couponsChanged(db, [goingPrivate.couponId]);
     await deleteTestCoupons(db, [deleted.couponId]);
 
     const owner = await read(id, jars.owner);

@@ -6,6 +6,7 @@ import type { Database } from '../../db/client';
 import { alloys, couponLayers, coupons, users } from '../../db/schema';
 import type { PhotoView, RegionInput, UploadTicket } from '~/lib/photos';
 import { api, type Jar } from './app';
+import { deleteCoupons } from '../fixtures/library-coupons';
 
 export async function userIdOf(db: Database, email: string): Promise<string> {
   const [row] = await db.select({ id: users.id }).from(users).where(eq(users.email, email));
@@ -45,8 +46,9 @@ export async function insertCoupon(db: Database, ownerEmail: string, layers: str
   return { id, layerIds };
 }
 
+/** Deletes coupons inserted here, bumping their alloys' library versions as the app's deletion does. */
 export async function deleteTestCoupons(db: Database, ids: number[]): Promise<void> {
-  if (ids.length) await db.delete(coupons).where(inArray(coupons.id, ids));
+  await deleteCoupons(db, ids);
 }
 
 /** When an upload URL stops working: its X-Amz-Date plus X-Amz-Expires seconds (AWS Signature Version 4 query parameters). */

@@ -6,15 +6,17 @@ export const MAX_BODY_BYTES = 64 * 1024;
 export const MAX_BODY_LABEL = '64 kB';
 
 /**
- * True when the body is larger than `max` bytes. A declared Content-Length over the cap is refused
- * unread; otherwise the bytes of a copy are counted as they stream in (chunked bodies declare no
- * length) and counting stops at the first byte over the cap, so no more than `max` bytes plus one
- * chunk are ever held. The request's own body is left unread for the route.
+ * True when the body is larger than `max` bytes. A declared Content-Length decides alone: over the
+ * cap it is refused unread, and within it nothing needs counting, as Node's HTTP parser never hands
+ * on more body than the declared length (the rest is read as the next request on the connection,
+ * or refused as a malformed one). Only a chunked body (no length declared) has the bytes of a copy
+ * counted as they stream in, stopping at the first byte over the cap, so no more than `max` bytes
+ * plus one chunk are ever held. The request's own body is left unread for the route.
  */
 export async function bodyTooLarge(request: Request, max = MAX_BODY_BYTES): Promise<boolean> {
   if (!request.body) return false;
   const declared = request.headers.get('content-length');
-  if (declared !== null && Number(declared) > max) return true;
+  if (declared !== null) return !(Number(declared) <= max);
   const reader = request.clone().body!.getReader();
   let received = 0;
   try {

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, inArray, isNotNull, lt, or, sql } from 'drizzle-orm';
-import { alloys, couponLayers, coupons, swatches } from '../../../../db/schema';
+import { alloys, couponLayers, coupons, libraryVersions, swatches } from '../../../../db/schema';
 import { findAlloy } from '~/lib/alloys';
 import { db } from '~/lib/server/db';
 
@@ -178,4 +178,40 @@ async function dominantByCoupon(couponIds: number[]): Promise<Map<number, Recent
     .orderBy(asc(couponLayers.couponId), asc(couponLayers.position));
   for (const row of rows) byCoupon.set(row.couponId, [...(byCoupon.get(row.couponId) ?? []), { alloy: row.alloy, hex: row.hex }]);
   return byCoupon;
+}
+
+/**
+ * The whole library's version: the sum of the alloys' library versions. Every write that can change
+ * what the front page shows (a coupon's edit, sharing or deletion, a photo's attach, measure or
+ * deletion, an account's deletion) raises its alloys' versions in its own transaction
+ * (library-versions.ts), and versions only go up, so the sum changes with every such write, in
+ * every process at once. One small read of a table of a row per alloy.
+ */
+export async function libraryVersion(): Promise<string> {
+  const [row] = await db()
+    .select({ total: sql<string>`coalesce(sum(${libraryVersions.version}), 0)`.mapWith(String) })
+    .from(libraryVersions);
+  return row.total;
+}
+
+/** The front page's groups, computed once per library version (shared by requests that ask meanwhile). */
+let remembered: { version: string; pairs: Promise<RecentPair[]> } | undefined;
+
+/**
+ * The front page's "recent in the library" (recentPublicPairs with its usual limits), kept in the
+ * process for as long as the library's version stays the same. The version is read before the
+ * groups, so groups read after a write are never kept under the version before it.
+ */
+export async function recentInLibrary(): Promise<RecentPair[]> {
+  const version = await libraryVersion();
+  let known = remembered;
+  if (!known || known.version !== version) {
+    const pairs = recentPublicPairs();
+    known = remembered = { version, pairs };
+    // A failed reading is not kept: the next request tries again.
+    pairs.catch(() => {
+      if (remembered?.pairs === pairs) remembered = undefined;
+    });
+  }
+  return known.pairs;
 }
