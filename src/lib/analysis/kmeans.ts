@@ -109,20 +109,29 @@ export function assignPoints(points: Float64Array, centres: Float64Array): Assig
   return { labels, counts, means, meanSquares };
 }
 
-/** Lloyd's iterations stop once no more than this fraction of points change cluster. */
+/** Lloyd's iterations stop once no more than this fraction of points change cluster… */
 const CONVERGED_FRACTION = 0.002;
+/**
+ * …or once no centre moves further than this in OKLab (a twentieth of the ~0.02 that is about one
+ * just-noticeable difference; common practice for a stopping tolerance, not a published value).
+ */
+const CONVERGED_MOVE = 0.001;
 
 function lloyd(points: Float64Array, initial: Float64Array, maxIterations: number): ClusterFit {
   const n = points.length / 3;
   const k = initial.length / 3;
   const centres = Float64Array.from(initial);
   const labels = new Int32Array(n).fill(-1);
+  const sums = new Float64Array(k * 3);
+  const counts = new Float64Array(k);
   for (let iteration = 0; iteration < maxIterations; iteration += 1) {
     let changed = 0;
-    const sums = new Float64Array(k * 3);
-    const counts = new Float64Array(k);
+    let wcss = 0;
+    sums.fill(0);
+    counts.fill(0);
     for (let i = 0; i < n; i += 1) {
       const cluster = nearest(points, i * 3, centres);
+      wcss += lastDistance[0];
       if (labels[i] !== cluster) changed += 1;
       labels[i] = cluster;
       counts[cluster] += 1;
@@ -130,11 +139,20 @@ function lloyd(points: Float64Array, initial: Float64Array, maxIterations: numbe
       sums[cluster * 3 + 1] += points[i * 3 + 1];
       sums[cluster * 3 + 2] += points[i * 3 + 2];
     }
-    if (changed <= n * CONVERGED_FRACTION) break;
+    // Converged: the centres are those this pass measured against, so its distances are the fit's.
+    if (changed <= n * CONVERGED_FRACTION) return { centres, wcss };
+    let moved = 0;
     for (let c = 0; c < k; c += 1) {
       if (counts[c] === 0) continue; // an empty cluster keeps its centre
-      for (let axis = 0; axis < 3; axis += 1) centres[c * 3 + axis] = sums[c * 3 + axis] / counts[c];
+      let move = 0;
+      for (let axis = 0; axis < 3; axis += 1) {
+        const next = sums[c * 3 + axis] / counts[c];
+        move += (next - centres[c * 3 + axis]) ** 2;
+        centres[c * 3 + axis] = next;
+      }
+      if (move > moved) moved = move;
     }
+    if (moved <= CONVERGED_MOVE ** 2) break;
   }
   let wcss = 0;
   for (let i = 0; i < n; i += 1) {
