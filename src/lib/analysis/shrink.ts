@@ -65,6 +65,8 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
   const offsets = new Int32Array(maxCell);
   const sorted = new Int32Array(maxCell);
   const { darkMax, clippedMin, nearWhiteMin } = PIXEL_LIMITS;
+  // 255 when there is no alpha channel to look at, so the test per pixel is one comparison of a constant.
+  const opaque = channels === 4 ? 0 : 255;
   const lights = SRGB8_TO_LINEAR;
   // Cell edges in pixels of `image` (which starts at `source` in the full image).
   const lefts = Int32Array.from({ length: width + 1 }, (_, ox) => Math.min(full.width, Math.floor(ox * scaleX)) - source.x);
@@ -75,8 +77,8 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
     for (let ox = cells.x; ox < cells.x + cells.width; ox += 1) {
       const left = lefts[ox];
       const right = Math.max(left + 1, lefts[ox + 1]);
-      // First pass: each pixel's brightness (its brightest channel), the cell's range, and the
-      // linear sums of the pixels PIXEL_LIMITS keeps.
+      // First pass: the cell's range of brightness (each pixel's brightest channel) and the linear
+      // sums of the pixels PIXEL_LIMITS keeps. Nothing is stored per pixel: most cells have no outlier.
       let n = 0;
       let lowest = 255;
       let highest = 0;
@@ -87,13 +89,11 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
       for (let y = top; y < bottom; y += 1) {
         let offset = y * rowLength + left * channels;
         for (let x = left; x < right; x += 1, offset += channels) {
-          if (channels === 4 && data[offset + 3] < 255) continue;
+          if (opaque < 255 && data[offset + 3] < 255) continue;
           const red = data[offset];
           const green = data[offset + 1];
           const blue = data[offset + 2];
           const value = red > green ? (red > blue ? red : blue) : green > blue ? green : blue;
-          brightness[n] = value;
-          offsets[n] = offset;
           n += 1;
           if (value < lowest) lowest = value;
           if (value > highest) highest = value;
@@ -106,10 +106,24 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
       }
       const target = (oy * width + ox) * channels;
       if (n === 0) continue; // all transparent: stays transparent (alpha 0)
-      let medianAt = offsets[0];
+      let medianAt = -1;
       // A cell whose whole range fits in the band about its darkest pixel has no outlier: every
-      // pixel is within the band of the median. Only the others are sorted.
+      // pixel is within the band of the median. Only the others are read again and sorted.
       if (highest - lowest > GLINT_BAND.relative * lowest + GLINT_BAND.absolute) {
+        n = 0;
+        for (let y = top; y < bottom; y += 1) {
+          let offset = y * rowLength + left * channels;
+          for (let x = left; x < right; x += 1, offset += channels) {
+            if (opaque < 255 && data[offset + 3] < 255) continue;
+            const red = data[offset];
+            const green = data[offset + 1];
+            const blue = data[offset + 2];
+            brightness[n] = red > green ? (red > blue ? red : blue) : green > blue ? green : blue;
+            offsets[n] = offset;
+            n += 1;
+          }
+        }
+        medianAt = offsets[0];
         for (let i = 0; i < n; i += 1) {
           const value = brightness[i];
           let at = i;
@@ -141,6 +155,7 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
         }
       }
       if (kept === 0) {
+        if (medianAt < 0) medianAt = firstOpaque(data, channels, top, bottom, left, right, rowLength);
         out[target] = data[medianAt];
         out[target + 1] = data[medianAt + 1];
         out[target + 2] = data[medianAt + 2];
@@ -153,4 +168,14 @@ export function shrinkRejectingGlare(image: PixelImage, width: number, height: n
     }
   }
   return { data: out, width, height, channels };
+}
+
+/** Offset of the first opaque pixel of a cell (the pixel a cell with no outlier and no kept pixel stands for). */
+function firstOpaque(data: PixelImage['data'], channels: number, top: number, bottom: number, left: number, right: number, rowLength: number): number {
+  for (let y = top; y < bottom; y += 1) {
+    for (let x = left, offset = y * rowLength + left * channels; x < right; x += 1, offset += channels) {
+      if (channels === 3 || data[offset + 3] === 255) return offset;
+    }
+  }
+  return top * rowLength + left * channels;
 }
