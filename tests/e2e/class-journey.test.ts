@@ -14,7 +14,7 @@ import { demo, demoPassword } from '../support/auth';
 import { launchBrowser } from '../support/browser';
 import { linkIn, waitForMail } from '../support/mail';
 import { couponScene, encodeJpeg, renderScene, TINTS } from '../fixtures/synthetic-photos';
-import type { Rectangle } from '~/lib/photos';
+import { drawRegion } from '../support/photo-regions';
 
 const widths = [
   { label: 'phone', viewport: { width: 390, height: 844 } },
@@ -48,20 +48,6 @@ async function signIn(page: Page, email: string) {
   await form.getByLabel('Password').fill(demoPassword);
   await form.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL(`${baseUrl}/account`);
-}
-
-/** Drags out a rectangle given in photo pixels over the photo as shown (a little inside it). */
-async function drawRegion(page: Page, region: Rectangle) {
-  const canvas = page.getByTestId('photo-canvas');
-  await canvas.evaluate((element) => element.scrollIntoView({ block: 'center' }));
-  const box = (await canvas.boundingBox())!;
-  const at = (x: number, y: number) => ({ x: box.x + (x / 1200) * box.width, y: box.y + (y / 800) * box.height });
-  const start = at(region.x + region.width * 0.1, region.y + region.height * 0.15);
-  const end = at(region.x + region.width * 0.9, region.y + region.height * 0.85);
-  await page.mouse.move(start.x, start.y);
-  await page.mouse.down();
-  await page.mouse.move(end.x, end.y, { steps: 8 });
-  await page.mouse.up();
 }
 
 /** Presses Tab until the focused element's accessible label starts with `prefix` (keyboard only). */

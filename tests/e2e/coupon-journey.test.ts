@@ -8,7 +8,7 @@ import { api, baseUrl } from '../support/app';
 import { demo, demoPassword, signedIn } from '../support/auth';
 import { useBrowser } from '../support/browser';
 import { couponScene, encodeJpeg, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
-import type { Rectangle } from '~/lib/photos';
+import { drawRegion } from '../support/photo-regions';
 
 // ΔE00 per Sharma, Wu & Dalal (2005) on CIELAB D65 per CIE 15.
 const ciede2000 = differenceCiede2000();
@@ -32,21 +32,6 @@ async function signIn(page: Page, email: string) {
 
 const hydrated = (page: Page) =>
   page.waitForFunction(() => document.querySelectorAll('astro-island').length > 0 && !document.querySelector('astro-island[ssr]'));
-
-/** Drags out a rectangle given in photo pixels over the photo as shown. */
-async function drawRegion(page: Page, region: Rectangle) {
-  const canvas = page.getByTestId('photo-canvas');
-  await canvas.evaluate((element) => element.scrollIntoView({ block: 'center' }));
-  const box = (await canvas.boundingBox())!;
-  const at = (x: number, y: number) => ({ x: box.x + (x / 1200) * box.width, y: box.y + (y / 800) * box.height });
-  // A little inside the patch, so the rectangle holds only its colour.
-  const start = at(region.x + region.width * 0.1, region.y + region.height * 0.15);
-  const end = at(region.x + region.width * 0.9, region.y + region.height * 0.85);
-  await page.mouse.move(start.x, start.y);
-  await page.mouse.down();
-  await page.mouse.move(end.x, end.y, { steps: 8 });
-  await page.mouse.up();
-}
 
 describe('logging a coupon with photos in Chromium', () => {
   let couponPath: string;

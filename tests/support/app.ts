@@ -31,14 +31,16 @@ export interface RequestOptions extends RequestInit {
   json?: unknown;
   form?: Record<string, string>;
   from?: string;
+  /** Another app process's address (tests/support/app-process.ts); the suite's own by default. */
+  base?: string;
 }
 
 /** fetch against the app: sends Origin on writes, keeps cookies in `jar`, never follows redirects. */
 export async function api(path: string, options: RequestOptions = {}): Promise<Response> {
-  const { jar, json, form, from = clientAddress, ...init } = options;
+  const { jar, json, form, from = clientAddress, base = baseUrl, ...init } = options;
   const headers = new Headers(init.headers);
   const method = init.method ?? (json !== undefined || form ? 'POST' : 'GET');
-  if (method !== 'GET' && method !== 'HEAD' && !headers.has('origin')) headers.set('origin', baseUrl);
+  if (method !== 'GET' && method !== 'HEAD' && !headers.has('origin')) headers.set('origin', base);
   headers.set('x-forwarded-for', from);
   let body = init.body;
   if (json !== undefined) {
@@ -49,7 +51,7 @@ export async function api(path: string, options: RequestOptions = {}): Promise<R
     body = new URLSearchParams(form).toString();
   }
   if (jar?.cookies.size) headers.set('cookie', [...jar.cookies].map(([name, value]) => `${name}=${value}`).join('; '));
-  const response = await fetch(new URL(path, baseUrl), { ...init, method, headers, body, redirect: 'manual' });
+  const response = await fetch(new URL(path, base), { ...init, method, headers, body, redirect: 'manual' });
   remember(jar, response);
   return response;
 }
