@@ -1,12 +1,14 @@
-// Journey 1 in Chromium: the demo member logs a two-layer coupon, uploads a photo of it by the
-// file picker, watches the upload finish, marks a region per layer and the grey card, and sees
-// the swatches; then another member cannot open the coupon while it is private.
+// Journey 1 in Chromium, at phone and desk width: a brand-new person signs up (the confirmation
+// link read from the captured mail), logs a two-layer coupon, uploads a photo of it by the file
+// picker, watches the upload finish, marks a region per layer and the grey card, and sees the
+// swatches; then another member cannot open the coupon while it is private.
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { converter, differenceCiede2000 } from 'culori';
-import { api, baseUrl } from '../support/app';
+import { api, baseUrl, clientAddress } from '../support/app';
 import { demo, demoPassword, signedIn } from '../support/auth';
 import { useBrowser } from '../support/browser';
+import { linkIn, waitForMail } from '../support/mail';
 import { couponScene, encodeJpeg, illuminantACast, renderScene, TINTS } from '../fixtures/synthetic-photos';
 import { drawRegion } from '../support/photo-regions';
 
@@ -20,31 +22,57 @@ const browser = useBrowser();
 /** The photo: straw over purple, a grey card beside them, under a warm (illuminant A) light. */
 const scene = couponScene(1200, 800, [TINTS.straw, TINTS.purple], { cast: illuminantACast(), noise: { sigma: 4, seed: 51 } });
 
-async function signIn(page: Page, email: string) {
+async function signIn(page: Page, email: string, password = demoPassword) {
   await browser().clearCookies();
   await page.goto(`${baseUrl}/sign-in`);
   const form = page.getByRole('region', { name: 'Sign in' });
   await form.getByLabel('E-mail address').fill(email);
-  await form.getByLabel('Password').fill(demoPassword);
+  await form.getByLabel('Password').fill(password);
   await form.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL(`${baseUrl}/account`);
 }
 
+const NEW_PASSWORD = 'quenched from 800 C';
+
+/** A brand-new person signs up and confirms the address from the mailed link; returns the address. */
+async function signUp(page: Page, width: string): Promise<string> {
+  // This file's own client address, so other files' sign-up limits never reach it.
+  await browser().setExtraHTTPHeaders({ 'x-forwarded-for': clientAddress });
+  const email = `coupons-${width}-${Date.now().toString(36)}@oxbloom.test`;
+  await page.goto(`${baseUrl}/sign-up`);
+  await page.getByLabel('Your name').fill(`Coupon Logger ${width}`);
+  await page.getByLabel('E-mail address').fill(email);
+  await page.getByLabel('Password').fill(NEW_PASSWORD);
+  await page.getByRole('button', { name: 'Make my account' }).click();
+  await expect.poll(() => page.getByText('Check your e-mail').isVisible()).toBe(true);
+  await page.goto(linkIn(await waitForMail(email, 'Confirm your e-mail', 0, 20_000), `${baseUrl}/confirm-email`));
+  await expect.poll(() => page.getByRole('heading', { name: 'Your address is confirmed' }).isVisible()).toBe(true);
+  return email;
+}
+
+const widths = [
+  { name: 'phone', width: 390, height: 844 },
+  { name: 'desk', width: 1440, height: 900 },
+];
+
 const hydrated = (page: Page) =>
   page.waitForFunction(() => document.querySelectorAll('astro-island').length > 0 && !document.querySelector('astro-island[ssr]'));
 
-describe('logging a coupon with photos in Chromium', () => {
+describe.each(widths)('logging a coupon with photos in Chromium at $name width', (width) => {
   let couponPath: string;
+  let email: string;
 
-  // The demo library stays as seeded for the other tests.
+  // The library stays as it was for the other tests.
   afterAll(async () => {
-    if (couponPath) await api(`/api${couponPath}`, { jar: await signedIn(demo.member), method: 'DELETE' });
+    if (couponPath) await api(`/api${couponPath}`, { jar: await signedIn(email, NEW_PASSWORD), method: 'DELETE' });
   });
 
-  it('logs a two-layer coupon, uploads a photo, marks its layers and shows their swatches', async () => {
+  it('a new person signs up, logs a two-layer coupon, uploads a photo, marks its layers and sees their swatches', async () => {
     const page = await browser().newPage();
     page.setDefaultTimeout(15_000);
-    await signIn(page, demo.member);
+    await page.setViewportSize({ width: width.width, height: width.height });
+    email = await signUp(page, width.name);
+    await signIn(page, email, NEW_PASSWORD);
 
     await page.goto(`${baseUrl}/coupons/new`);
     await hydrated(page);
@@ -131,7 +159,9 @@ describe('logging a coupon with photos in Chromium', () => {
     await expect(page.getByText('Browser journey laminate').count()).resolves.toBe(0);
     await page.close();
   });
+});
 
+describe('the coupon form in Chromium', () => {
   it('keeps the draft and says so when the session has ended before saving', async () => {
     const page = await browser().newPage();
     page.setDefaultTimeout(15_000);
