@@ -38,6 +38,8 @@ const NEW_PASSWORD = 'quenched from 800 C';
 async function signUp(page: Page, width: string): Promise<string> {
   // This file's own client address, so other files' sign-up limits never reach it.
   await browser().setExtraHTTPHeaders({ 'x-forwarded-for': clientAddress });
+  // Signed out: an earlier test of this file left someone signed in.
+  await browser().clearCookies();
   const email = `coupons-${width}-${Date.now().toString(36)}@oxbloom.test`;
   await page.goto(`${baseUrl}/sign-up`);
   await page.getByLabel('Your name').fill(`Coupon Logger ${width}`);
