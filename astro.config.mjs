@@ -10,7 +10,8 @@ const port = Number(process.env.PORT ?? 4321);
 export default defineConfig({
   output: 'server',
   outDir: process.env.OXBLOOM_OUT_DIR ?? './dist',
-  adapter: node({ mode: 'standalone' }),
+  // scripts/serve.mjs serves the build: static files itself, everything else through the adapter's handler.
+  adapter: node({ mode: 'middleware' }),
   integrations: [react(), auth({ configFile: './src/auth.config.ts' })],
   server: { host: '127.0.0.1', port },
   security: {

@@ -22,7 +22,7 @@ async function main() {
   ensureDebianPackages({ mariadbd: 'mariadb-server' });
   ensureNodeModules();
 
-  const { startServices, stopServices, authSecret } = await import('./services/index.mjs');
+  const { startServices, stopServices, authSecret, serverArguments } = await import('./services/index.mjs');
   const { migrate, seed, build } = await import('./services/tasks.mjs');
   const { writeFileSync, mkdirSync, rmSync } = await import('node:fs');
   mkdirSync(profile.runDir, { recursive: true });
@@ -51,7 +51,7 @@ async function main() {
 
     const command = devServer
       ? [path.join(root, 'node_modules', 'astro', 'astro.js'), 'dev', '--host', profile.host, '--port', String(profile.ports.app)]
-      : [path.join(profile.outDir, 'server', 'entry.mjs')];
+      : serverArguments(profile.outDir);
     const app = spawn(process.execPath, command, { stdio: 'inherit', cwd: root, env: { ...process.env, ...env } });
     writeFileSync(path.join(profile.runDir, 'app.pid'), String(app.pid));
     app.on('exit', (code) => shutdown(code ?? 0));

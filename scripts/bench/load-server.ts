@@ -1,6 +1,6 @@
 // A fresh production server for the load benchmark: the `bench` profile's ports with its own data
 // folder (.data/load-bench), a new database migrated and seeded with the demo, a build, and
-// `node dist/server/entry.mjs`; or the app over the library benchmark's generated database.
+// `node scripts/serve.mjs`; or the app over the library benchmark's generated database.
 import { existsSync, rmSync } from 'node:fs';
 import path from 'node:path';
 

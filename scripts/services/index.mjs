@@ -64,13 +64,21 @@ export async function startServices(profile, { freshDatabase = false } = {}) {
 }
 
 /**
- * Starts the built app (`node <outDir>/server/entry.mjs`) in the background.
+ * The arguments to `node` that serve a build: scripts/serve.mjs with the build's folder.
+ * @param {string} outDir
+ */
+export function serverArguments(outDir) {
+  return [path.join(root, 'scripts', 'serve.mjs'), outDir];
+}
+
+/**
+ * Starts the built app (`node scripts/serve.mjs <outDir>`) in the background.
  * @param {Profile} profile
  * @param {Record<string, string>} env
  */
 export async function startApp(profile, env) {
   await requireFreePort(profile.ports.app, profile.portVariables.app, 'the app');
-  const pid = startBackground(process.execPath, [path.join(profile.outDir, 'server', 'entry.mjs')], {
+  const pid = startBackground(process.execPath, serverArguments(profile.outDir), {
     pidFile: pidFile(profile, 'app'),
     logFile: logFile(profile, 'app'),
     env,

@@ -1,11 +1,11 @@
 // Extra app processes for tests of crashes, outages and several servers: the built app
-// (`node <outDir>/server/entry.mjs`, built by scripts/test.mjs) on a port of its own, with the
+// (`node scripts/serve.mjs <outDir>`, built by scripts/test.mjs) on a port of its own, with the
 // test services' settings unless overridden. Every process started here must be stopped in afterAll.
 import { spawn, type ChildProcess } from 'node:child_process';
 import net from 'node:net';
-import path from 'node:path';
 import { loadProfile } from '../../scripts/services/profile.mjs';
 import { waitForPort } from '../../scripts/services/processes.mjs';
+import { serverArguments } from '../../scripts/services/index.mjs';
 
 export async function freePort(): Promise<number> {
   const server = net.createServer();
@@ -31,8 +31,7 @@ export interface AppProcess {
 export async function startAppProcess(overrides: Record<string, string> = {}, port?: number): Promise<AppProcess> {
   const chosen = port ?? (await freePort());
   const url = `http://127.0.0.1:${chosen}`;
-  const entry = path.join(loadProfile('test').outDir, 'server', 'entry.mjs');
-  const child = spawn(process.execPath, [entry], {
+  const child = spawn(process.execPath, serverArguments(loadProfile('test').outDir), {
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(chosen), APP_URL: url, ...overrides },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
