@@ -150,20 +150,30 @@ const jsonErrors = defineMiddleware(async (context, next) => {
 
 /** Pages and routes of accounts and sign-in: never kept by a cache, signed in or not. */
 const PERSONAL_PATHS = /^\/(account|admin|sign-in|sign-up|forgot-password|reset-password|confirm-email|api\/account|api\/admin|api\/auth)(\/|$)/;
-let storageOrigin: string | undefined;
+const headerLists = new Map<boolean, [string, string][]>();
+
+/** The security headers over http or https, worked out once (they depend on settings read at start). */
+function securityHeaderList(https: boolean): [string, string][] {
+  let list = headerLists.get(https);
+  if (!list)
+    headerLists.set(https, (list = Object.entries(securityHeaders({ storageOrigin: new URL(config().S3_ENDPOINT).origin, https, dev: import.meta.env.DEV }))));
+  return list;
+}
 
 /**
  * Security headers on every answer (lib/server/security-headers.ts), and `Cache-Control: no-store`
- * on every answer to someone signed in and on every account page. The response is copied, as its
- * headers may be immutable.
+ * on every answer to someone signed in and on every account page. A response whose headers are
+ * immutable (a redirect, a fetched one) is copied first; the rest are changed in place.
  */
 const secureHeaders = defineMiddleware(async (context, next) => {
-  const original = await next();
-  const response = new Response(original.body, original);
-  storageOrigin ??= new URL(config().S3_ENDPOINT).origin;
-  for (const [name, value] of Object.entries(securityHeaders({ storageOrigin, https: context.url.protocol === 'https:', dev: import.meta.env.DEV }))) {
-    response.headers.set(name, value);
+  let response = await next();
+  const list = securityHeaderList(context.url.protocol === 'https:');
+  try {
+    response.headers.set(list[0][0], list[0][1]);
+  } catch {
+    response = new Response(response.body, response);
   }
+  for (const [name, value] of list) response.headers.set(name, value);
   if (context.locals.user || PERSONAL_PATHS.test(context.url.pathname)) response.headers.set('cache-control', 'no-store');
   return response;
 });

@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { gzipSync } from 'node:zlib';
 
 /**
  * Answers that are pure functions of their request, computed once per process and revalidated by
@@ -34,25 +35,53 @@ export class BoundedCache<K, V> {
     return value;
   }
 
+  delete(key: K): void {
+    this.#entries.delete(key);
+  }
+
   get size(): number {
     return this.#entries.size;
   }
 }
 
-/** A body ready to send, with its strong validator. */
-export interface CachedBody {
-  body: string;
+/** One key per meaning of a validated request: its defined fields in sorted order. */
+export const requestKey = (request: object): string =>
+  JSON.stringify(
+    Object.entries(request)
+      .filter(([, value]) => value !== undefined)
+      .sort(([a], [b]) => (a < b ? -1 : 1)),
+  );
+
+/** One representation of a cached answer: the exact bytes sent and their strong validator. */
+export interface Representation {
+  bytes: Uint8Array<ArrayBuffer>;
   etag: string;
+}
+
+/**
+ * A body ready to send: its bytes (encoded once, not on every request), its strong validator, and
+ * a gzip-coded copy when that is worth sending (bodies of a kilobyte or more that shrink).
+ */
+export interface CachedBody {
+  identity: Representation;
+  gzip?: Representation;
   contentType: string;
 }
 
 /** A strong ETag: a digest of the exact bytes sent, so it changes whenever the content does. */
-export function strongEtag(body: string): string {
+export function strongEtag(body: string | Uint8Array): string {
   return `"${createHash('sha256').update(body).digest('base64url').slice(0, 32)}"`;
 }
 
+const GZIP_FROM_BYTES = 1024;
+
 export function cachedBody(body: string, contentType: string): CachedBody {
-  return { body, etag: strongEtag(body), contentType };
+  const bytes = new TextEncoder().encode(body);
+  const identity = { bytes, etag: strongEtag(bytes) };
+  if (bytes.length < GZIP_FROM_BYTES) return { identity, contentType };
+  const zipped = new Uint8Array(gzipSync(bytes, { level: 9 }));
+  // A coded representation has a validator of its own (RFC 9110 §8.8.3: strong validators differ per content coding).
+  return { identity, contentType, ...(zipped.length < bytes.length ? { gzip: { bytes: zipped, etag: strongEtag(zipped) } } : {}) };
 }
 
 export const cachedJson = (value: unknown): CachedBody => cachedBody(JSON.stringify(value), 'application/json; charset=utf-8');
@@ -69,16 +98,41 @@ export function matchesIfNoneMatch(header: string | null, etag: string): boolean
 }
 
 /**
- * Sends `cached` with its ETag and `cacheControl`. When the request's If-None-Match names it, a GET
- * or HEAD gets 304 without a body and any other method 412 (RFC 9110 §13.1.2); else 200 and the body.
+ * Whether an Accept-Encoding header lets us send gzip (RFC 9110 §12.5.3): `gzip` (or its alias
+ * `x-gzip`) listed with a non-zero weight, or `*` with a non-zero weight and gzip not refused.
+ */
+export function acceptsGzip(header: string | null): boolean {
+  if (!header) return false;
+  let star = false;
+  for (const part of header.split(',')) {
+    const [coding, ...parameters] = part.split(';').map((piece) => piece.trim().toLowerCase());
+    const weight = parameters.find((parameter) => parameter.startsWith('q='));
+    const allowed = weight === undefined || Number(weight.slice(2)) > 0;
+    if (coding === 'gzip' || coding === 'x-gzip') return allowed;
+    if (coding === '*') star = allowed;
+  }
+  return star;
+}
+
+/**
+ * Sends `cached` with its ETag and `cacheControl`, gzip-coded when the request accepts it. When the
+ * request's If-None-Match names the chosen representation's ETag, a GET or HEAD gets 304 without a
+ * body and any other method 412 (RFC 9110 §13.1.2); else 200 and the body.
  */
 export function sendCached(request: Request, cached: CachedBody, cacheControl: string, extraHeaders: Record<string, string> = {}): Response {
-  const headers = { etag: cached.etag, 'cache-control': cacheControl, ...extraHeaders };
-  if (matchesIfNoneMatch(request.headers.get('if-none-match'), cached.etag)) {
+  const coded = cached.gzip && acceptsGzip(request.headers.get('accept-encoding')) ? cached.gzip : undefined;
+  const chosen = coded ?? cached.identity;
+  const vary = [extraHeaders.vary, cached.gzip ? 'accept-encoding' : undefined].filter(Boolean).join(', ');
+  const headers: Record<string, string> = { ...extraHeaders, etag: chosen.etag, 'cache-control': cacheControl, ...(vary ? { vary } : {}) };
+  if (matchesIfNoneMatch(request.headers.get('if-none-match'), chosen.etag)) {
     const safe = request.method === 'GET' || request.method === 'HEAD';
     return new Response(null, { status: safe ? 304 : 412, headers });
   }
-  return new Response(cached.body, { status: 200, headers: { 'content-type': cached.contentType, ...headers } });
+  if (coded) headers['content-encoding'] = 'gzip';
+  return new Response(chosen.bytes, {
+    status: 200,
+    headers: { 'content-type': cached.contentType, 'content-length': String(chosen.bytes.length), ...headers },
+  });
 }
 
 /**
