@@ -2,6 +2,7 @@ import { and, asc, desc, eq, inArray, isNotNull, lt, or, sql } from 'drizzle-orm
 import { alloys, couponLayers, coupons, libraryVersions, swatches } from '../../../../db/schema';
 import { findAlloy } from '~/lib/alloys';
 import { db } from '~/lib/server/db';
+import { freshRead } from '~/lib/server/fresh-read';
 
 /** One layer's dominant measured colour on a recent coupon. */
 export interface RecentSwatch {
@@ -185,14 +186,15 @@ async function dominantByCoupon(couponIds: number[]): Promise<Map<number, Recent
  * what the front page shows (a coupon's edit, sharing or deletion, a photo's attach, measure or
  * deletion, an account's deletion) raises its alloys' versions in its own transaction
  * (library-versions.ts), and versions only go up, so the sum changes with every such write, in
- * every process at once. One small read of a table of a row per alloy.
+ * every process at once. One small read of a table of a row per alloy, shared by the requests that
+ * ask while another read is in flight, and always taken after they asked (fresh-read.ts).
  */
-export async function libraryVersion(): Promise<string> {
+export const libraryVersion: () => Promise<string> = freshRead(async () => {
   const [row] = await db()
     .select({ total: sql<string>`coalesce(sum(${libraryVersions.version}), 0)`.mapWith(String) })
     .from(libraryVersions);
   return row.total;
-}
+});
 
 /** The front page's groups, computed once per library version (shared by requests that ask meanwhile). */
 let remembered: { version: string; pairs: Promise<RecentPair[]> } | undefined;
