@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { api } from '../support/app';
-import { anotherClientAddress, demo, signedIn } from '../support/auth';
+import { anotherClientAddress, confirmedAccount, demo, signedIn } from '../support/auth';
 
 /**
  * Answers that are pure functions of their request carry a strong ETag and Cache-Control, and a
@@ -26,6 +26,7 @@ describe.each([
   ['GET /api/tint/ladder', '/api/tint/ladder?alloy=ti-grade-5'],
   ['GET /api/tint/predict (visitor)', '/api/tint/predict?alloy=ti-grade-5&process=heat&temperatureC=400&holdMinutes=30'],
   ['GET /api/alloys', '/api/alloys'],
+  ['GET /api/coupons (visitor)', '/api/coupons?limit=5'],
   ['the tint ladder page (visitor)', '/tint-ladder?alloy=ti-grade-5'],
 ])('%s', (_name, path) => {
   it('carries a strong ETag and public Cache-Control, and a repeat with If-None-Match is a 304 without a body', async () => {
@@ -150,5 +151,55 @@ describe('bad queries', () => {
     const response = await api(path);
     expect(response.status).toBe(status);
     expect(((await response.json()) as { field?: string }).field).toBe(field);
+  });
+});
+
+describe('the library list for visitors', () => {
+  interface ListJson {
+    coupons: { id: number; title: string; ownerName: string | null }[];
+  }
+
+  it('is kept per library version: a repeat is a 304, and each write through the app shows at once (an edit, a new name, made private)', async () => {
+    const smith = await confirmedAccount();
+    // A temperature no other coupon of the suite uses, so the view holds this coupon alone.
+    const created = await api('/api/coupons', {
+      jar: smith.jar,
+      json: {
+        title: 'Cached list test',
+        layers: ['steel-1084'],
+        surfacePrep: 'ground',
+        process: 'oven',
+        temperatureC: 1187,
+        temperatureMethod: 'thermocouple',
+        holdSeconds: 600,
+        atmosphere: 'air',
+        cooling: 'still-air',
+        visibility: 'public',
+      },
+    });
+    expect(created.status).toBe(201);
+    const { id } = (await created.json()) as { id: number };
+    const path = '/api/coupons?tempMin=1187&tempMax=1187&limit=10';
+    const view = async (etag?: string) => {
+      const response = etag ? await revalidate(path, etag) : await api(path);
+      return { response, body: response.status === 200 ? ((await response.json()) as ListJson) : undefined };
+    };
+
+    const first = await view();
+    expect(first.body!.coupons.map((coupon) => [coupon.id, coupon.title, coupon.ownerName])).toEqual([[id, 'Cached list test', 'Test Smith']]);
+    const etag = first.response.headers.get('etag')!;
+    expect(etag).toMatch(STRONG_ETAG);
+    expect((await view(etag)).response.status).toBe(304);
+
+    expect((await api(`/api/coupons/${id}`, { method: 'PATCH', jar: smith.jar, json: { title: 'Cached list test, renamed' } })).status).toBe(200);
+    const edited = await view(etag);
+    expect(edited.response.status).toBe(200);
+    expect(edited.body!.coupons[0].title).toBe('Cached list test, renamed');
+
+    expect((await api('/api/account', { method: 'PATCH', jar: smith.jar, json: { name: 'Test Smithson' } })).status).toBe(200);
+    expect((await view(edited.response.headers.get('etag')!)).body?.coupons[0].ownerName).toBe('Test Smithson');
+
+    expect((await api(`/api/coupons/${id}`, { method: 'PATCH', jar: smith.jar, json: { visibility: 'private' } })).status).toBe(200);
+    expect((await view()).body!.coupons).toEqual([]);
   });
 });

@@ -9,7 +9,7 @@ import {
   type PredictRequest,
   type TintModel,
 } from '~/lib/tint';
-import { BoundedCache, cachedJson, type CachedBody } from './http-cache';
+import { BoundedCache, cachedJson, requestKey, type CachedBody } from './http-cache';
 
 /**
  * The tint routes' answers that depend on nothing but their request: the tint ladder and the
@@ -20,20 +20,12 @@ import { BoundedCache, cachedJson, type CachedBody } from './http-cache';
 const ladders = new BoundedCache<string, CachedBody>(256);
 const predictions = new BoundedCache<string, CachedBody>(1024);
 
-/** One key per meaning: the validated request's fields in sorted order. */
-const keyOf = (request: object) =>
-  JSON.stringify(
-    Object.entries(request)
-      .filter(([, value]) => value !== undefined)
-      .sort(([a], [b]) => (a < b ? -1 : 1)),
-  );
-
 export type CachedAnswer = { ok: true; answer: CachedBody } | { ok: false; status: number; message: string; field: string };
 
 export function ladderAnswer(request: LadderRequest): CachedAnswer {
   const lookup = lookUpModel(request.alloy, 'alloy', ['optics']);
   if (!lookup.ok) return { ok: false, status: lookup.status, message: lookup.message, field: lookup.field };
-  return { ok: true, answer: ladders.remember(keyOf(request), () => cachedJson(ladderResponse(lookup.model, request))) };
+  return { ok: true, answer: ladders.remember(requestKey(request), () => cachedJson(ladderResponse(lookup.model, request))) };
 }
 
 /** The reference-data prediction (a visitor's): no fit of anyone's library is involved. */
@@ -41,7 +33,7 @@ export function referencePredictionAnswer(request: PredictRequest): CachedAnswer
   const { alloy, ...plan } = request;
   const lookup = lookUpModel(alloy, 'alloy', ['optics', plan.process === 'heat' ? 'heat' : 'anodize']);
   if (!lookup.ok) return { ok: false, status: lookup.status, message: lookup.message, field: lookup.field };
-  return { ok: true, answer: predictions.remember(keyOf(request), () => cachedJson(predictResponse(lookup.model, plan, null, null))) };
+  return { ok: true, answer: predictions.remember(requestKey(request), () => cachedJson(predictResponse(lookup.model, plan, null, null))) };
 }
 
 /** The two strips of the tint ladder page: the whole ladder, and the first orders in detail. */

@@ -2,6 +2,7 @@ import { asc, eq, sql } from 'drizzle-orm';
 import { users } from '../../../db/schema';
 import { normaliseEmail, type RoleName } from '~/lib/account';
 import { db } from './db';
+import { alloysOfOwner, bumpLibraryVersions } from './library-versions';
 
 export interface UserRecord {
   id: string;
@@ -55,8 +56,12 @@ export async function markEmailVerified(id: string): Promise<void> {
     .where(eq(users.id, id));
 }
 
+/** A new display name; the library shows it beside the person's public coupons, so their alloys' versions go up. */
 export async function updateName(id: string, name: string): Promise<void> {
-  await db().update(users).set({ name }).where(eq(users.id, id));
+  await db().transaction(async (tx) => {
+    await tx.update(users).set({ name }).where(eq(users.id, id));
+    await bumpLibraryVersions(tx, await alloysOfOwner(tx, id));
+  });
 }
 
 export async function updatePasswordHash(id: string, passwordHash: string): Promise<void> {
