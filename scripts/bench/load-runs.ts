@@ -21,13 +21,17 @@ export interface LoadResult {
   errors: number;
 }
 
+/** What Chromium and Firefox send. */
+const BROWSER_ACCEPT_ENCODING = 'gzip, deflate, br, zstd';
+
 /** Runs autocannon against `baseUrl + target.path`; `rate` fixes the overall requests per second. */
 export async function load(
   baseUrl: string,
   target: LoadTarget,
   { seconds, connections = 10, rate }: { seconds: number; connections?: number; rate?: number },
 ): Promise<LoadResult> {
-  const headers: Record<string, string> = {};
+  // Every browser asks for compressed answers; so does every request here (static ones included).
+  const headers: Record<string, string> = { 'accept-encoding': BROWSER_ACCEPT_ENCODING };
   if (target.json !== undefined) headers['content-type'] = 'application/json';
   if (target.method === 'POST') headers.origin = baseUrl;
   if (target.cookie) headers.cookie = target.cookie;
