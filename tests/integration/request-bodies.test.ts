@@ -180,6 +180,45 @@ describe('content types', () => {
     expect(response.status).toBe(200);
   });
 
+  it('a JSON body whose multi-byte characters arrive split between packets reads exactly as sent', async () => {
+    const title = `Straw to blue at 290 °C, ½ hour — “split” ${unique()} 🔥`;
+    const bytes = Buffer.from(JSON.stringify(aCoupon(title)), 'utf8');
+    const { status, body } = await new Promise<{ status: number; body: string }>((resolve, reject) => {
+      const request = http.request(new URL('/api/coupons', baseUrl), {
+        method: 'POST',
+        headers: {
+          'content-type': 'application/json',
+          'content-length': String(bytes.length),
+          origin: baseUrl,
+          cookie: cookieOf(member),
+          'x-forwarded-for': clientAddress,
+        },
+      });
+      request.on('response', (response) => {
+        let text = '';
+        response.setEncoding('utf8');
+        response.on('data', (chunk) => (text += chunk));
+        response.on('end', () => resolve({ status: response.statusCode ?? 0, body: text }));
+      });
+      request.on('error', reject);
+      // Two bytes at a time, each its own packet: every character of three or four bytes is cut.
+      request.setNoDelay(true);
+      let offset = 0;
+      const next = () => {
+        if (offset >= bytes.length) return void request.end();
+        request.write(bytes.subarray(offset, offset + 2));
+        offset += 2;
+        setTimeout(next, 1);
+      };
+      next();
+    });
+    expect(status).toBe(201);
+    const { id } = JSON.parse(body) as { id: number };
+    const [stored] = await db.select({ title: coupons.title }).from(coupons).where(eq(coupons.id, id));
+    expect(stored.title).toBe(title);
+    await deleteCoupons(db, [id]);
+  });
+
   it('a route for our no-JavaScript forms takes a form and JSON, and refuses other types with 415', async () => {
     expect((await api('/api/account/forgot-password', { form: { email: `form-${unique()}@oxbloom.test` } })).status).toBe(202);
     expect((await api('/api/account/forgot-password', { json: { email: `json-${unique()}@oxbloom.test` } })).status).toBe(202);
