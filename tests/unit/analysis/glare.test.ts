@@ -81,3 +81,26 @@ describe('glints and streaks on a 2400 × 1600 photo', () => {
     expect(distance(before.lab, after.lab)).toBeGreaterThan(2);
   });
 });
+
+describe('glints and streaks on a 24 MP photo (6000 × 4000), decoded at half scale before the shrink', () => {
+  // A 24 MP JPEG is decoded by libjpeg at 1/2 scale (decode.ts), which averages each glint pixel
+  // with its neighbours before the glint-rejecting shrink sees it: one film, 10 % of its region.
+  const clean = photo(6000, 4000, TINTS.purple);
+  let reference: Awaited<ReturnType<typeof dominant>>;
+
+  it.each(GLINTS)(
+    '%s speckle and streaks at 10 % move the dominant swatch by under ΔE00 2',
+    async (_glint, colour) => {
+      reference ??= await dominant(clean.image, clean.region);
+      for (const add of [addSpeckle, addStreaks]) {
+        const { image, region } = photo(6000, 4000, TINTS.purple);
+        // Source: construction — the share of the region's pixels set to the glint.
+        expect(add(image, region, 0.1, colour, add === addSpeckle ? 7 : 3)).toBeCloseTo(0.1, 2);
+        const measured = await dominant(image, region);
+        // Source: the brief's limit, ΔE00 2 (Sharma, Wu & Dalal 2005), against the same photo without glints.
+        expect(distance(measured.lab, reference.lab), add.name).toBeLessThan(2);
+      }
+    },
+    60_000,
+  );
+});
