@@ -4,6 +4,7 @@ import { readdirSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
+import { ensureDebianPackages, ensureNodeModules } from './services/system.mjs';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const dir = path.join(root, 'scripts', 'bench');
@@ -12,6 +13,15 @@ const files = readdirSync(dir)
   .filter((name) => name.endsWith('.bench.ts'))
   .filter((name) => only.length === 0 || only.some((word) => name.includes(word)))
   .sort();
+
+// As `npm start` does: a fresh machine gets MariaDB and the node modules before the first benchmark.
+try {
+  ensureDebianPackages({ mariadbd: 'mariadb-server' });
+  ensureNodeModules();
+} catch (error) {
+  console.error(`[bench] ${error instanceof Error ? error.message : String(error)}`);
+  process.exit(1);
+}
 
 let failed = 0;
 for (const file of files) {

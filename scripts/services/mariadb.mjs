@@ -46,7 +46,8 @@ export async function startMariadb(profile) {
       ['--no-defaults', `--user=${userInfo().username}`, `--datadir=${profile.mariadbDir}`, '--auth-root-authentication-method=socket', '--skip-test-db'],
       { encoding: 'utf8' },
     );
-    if (init.status !== 0) throw new SetupError(`mariadb-install-db failed: ${(init.stderr || init.stdout).trim().split('\n').pop()}`);
+    if (init.error) throw new SetupError(`mariadb-install-db could not run (${init.error.message}): is Debian's mariadb-server installed?`);
+    if (init.status !== 0) throw new SetupError(`mariadb-install-db failed: ${(init.stderr || init.stdout || '').trim().split('\n').pop()}`);
   }
 
   // Temporary tables in a folder of its own: other servers on the machine share /tmp.

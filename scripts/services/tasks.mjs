@@ -56,7 +56,7 @@ function newestChange(entry) {
  */
 export function build(profile, env) {
   const stamp = path.join(profile.outDir, '.built');
-  const sources = ['src', 'public', 'db', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json'].map((entry) => path.join(root, entry));
+  const sources = ['src', 'public', 'db', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json', 'scripts/patches'].map((entry) => path.join(root, entry));
   const lastBuild = existsSync(stamp) ? statSync(stamp).mtimeMs : 0;
   if (lastBuild > Math.max(...sources.map(newestChange))) return false;
   runNode([astro, 'build', '--silent'], { ...env, OXBLOOM_OUT_DIR: profile.outDir, ASTRO_TELEMETRY_DISABLED: '1' }, 'Building the app');
