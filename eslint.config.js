@@ -25,6 +25,21 @@ export default tseslint.config(
     },
   },
   {
+    // The production server hands a small JSON body to the routes as text (scripts/serve.mjs), not as
+    // the request's stream: read bodies through parseJson/parseBody (lib/server/http.ts).
+    files: ['src/**/*.{ts,astro}'],
+    ignores: ['src/lib/server/http.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        ...["[callee.object.name='request']", "[callee.object.property.name='request']"].map((request) => ({
+          selector: `CallExpression[callee.property.name=/^(json|text|arrayBuffer|blob|bytes)$/]${request}`,
+          message: 'Read a JSON body with parseJson or parseBody (lib/server/http.ts): the production server may have read it ahead.',
+        })),
+      ],
+    },
+  },
+  {
     // Tests read JSON answers whose shape is what they check.
     files: ['tests/**/*.ts'],
     rules: { '@typescript-eslint/no-explicit-any': 'off' },

@@ -35,15 +35,30 @@ const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form
 const isJson = (request: Request) => mediaType(request) === 'application/json';
 const isForm = (request: Request) => FORM_TYPES.has(mediaType(request));
 
+/** What a route's body is read from: its request, and the body's text when the server read it ahead. */
+export interface BodySource {
+  request: Request;
+  locals: Pick<App.Locals, 'bodyText'>;
+}
+
+/**
+ * The body as text: the production server (scripts/serve.mjs) reads a small JSON body for an API
+ * route ahead and passes it in `locals.bodyText`, leaving the request without a body stream; any
+ * other body (the dev server, a chunked one) is read from the request.
+ */
+async function bodyText({ request, locals }: BodySource): Promise<string> {
+  return locals.bodyText ?? request.text();
+}
+
 /**
  * Reads a JSON body and validates it: anything but application/json is a 415, a malformed body or
  * a failed check a 400 naming the field. (The middleware has already capped the body's size.)
  */
-export async function parseJson<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
-  if (!isJson(request)) return { ok: false, response: problem(415, 'Send the request body as JSON, with Content-Type: application/json.') };
+export async function parseJson<S extends Schema>(source: BodySource, schema: S): Promise<Parsed<z.output<S>>> {
+  if (!isJson(source.request)) return { ok: false, response: problem(415, 'Send the request body as JSON, with Content-Type: application/json.') };
   let raw: unknown;
   try {
-    raw = await request.json();
+    raw = JSON.parse(await bodyText(source));
   } catch {
     return { ok: false, response: problem(400, 'The request body must be JSON.') };
   }
@@ -84,19 +99,19 @@ export function wantsHtml(request: Request): boolean {
 }
 
 /** Reads a JSON body or, from a plain HTML form, its fields as strings. */
-async function readBody(request: Request): Promise<unknown> {
-  if (isForm(request)) return Object.fromEntries((await request.formData()).entries());
-  return request.json();
+async function readBody(source: BodySource): Promise<unknown> {
+  if (isForm(source.request)) return Object.fromEntries((await source.request.formData()).entries());
+  return JSON.parse(await bodyText(source));
 }
 
 /** Like parseJson, for routes that take either JSON or a plain form post (our pages without JavaScript). */
-export async function parseBody<S extends Schema>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
-  if (!isJson(request) && !isForm(request)) {
+export async function parseBody<S extends Schema>(source: BodySource, schema: S): Promise<Parsed<z.output<S>>> {
+  if (!isJson(source.request) && !isForm(source.request)) {
     return { ok: false, response: problem(415, 'Send the request body as JSON (application/json) or as a form.') };
   }
   let raw: unknown;
   try {
-    raw = await readBody(request);
+    raw = await readBody(source);
   } catch {
     return { ok: false, response: problem(400, 'The request body must be JSON or a form.') };
   }

@@ -12,7 +12,7 @@ import { createUpload, tooManyOpenUploads } from '~/lib/server/photos/uploads-le
 export const POST: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const input = await parseJson(context.request, uploadRequestSchema);
+  const input = await parseJson(context, uploadRequestSchema);
   if (!input.ok) return input.response;
   const refusal = refuseUpload(input.data);
   if (refusal) return problem(refusal.status, refusal.message, refusal.field);

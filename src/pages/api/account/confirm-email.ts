@@ -7,7 +7,7 @@ import { startSession } from '~/lib/server/session';
 import { tokenProblem } from '~/lib/server/token-messages';
 
 export const POST: APIRoute = async (context) => {
-  const input = await parseBody(context.request, z.object({ token: tokenSchema }));
+  const input = await parseBody(context, z.object({ token: tokenSchema }));
   if (!input.ok) return input.response;
   const result = await confirmEmail(input.data.token);
   if (result.status !== 'confirmed') return tokenProblem(result.status);

@@ -15,7 +15,7 @@ export const GET: APIRoute = async (context) => {
 export const PATCH: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const input = await parseBody(context.request, changeNameSchema);
+  const input = await parseBody(context, changeNameSchema);
   if (!input.ok) return input.response;
   await updateName(user.id, input.data.name);
   return json(await findUserById(user.id));
@@ -24,7 +24,7 @@ export const PATCH: APIRoute = async (context) => {
 export const DELETE: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const input = await parseBody(context.request, deleteAccountSchema);
+  const input = await parseBody(context, deleteAccountSchema);
   if (!input.ok) return input.response;
   await deleteAccount(user.id);
   await endSession(context.cookies, context.url);

@@ -9,7 +9,7 @@ import { startSession } from '~/lib/server/session';
 export const POST: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const input = await parseBody(context.request, changePasswordSchema);
+  const input = await parseBody(context, changePasswordSchema);
   if (!input.ok) return input.response;
   const result = await changePassword(user.id, input.data.currentPassword, input.data.newPassword);
   if (result.status === 'limited') return tooManyAttempts(result.retryAfterSeconds, context.request);

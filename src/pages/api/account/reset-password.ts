@@ -6,7 +6,7 @@ import { startSession } from '~/lib/server/session';
 import { tokenProblem } from '~/lib/server/token-messages';
 
 export const POST: APIRoute = async (context) => {
-  const input = await parseBody(context.request, resetPasswordSchema);
+  const input = await parseBody(context, resetPasswordSchema);
   if (!input.ok) return input.response;
   const result = await resetPassword(input.data.token, input.data.password);
   if (result.status !== 'reset') return tokenProblem(result.status);

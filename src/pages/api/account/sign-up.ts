@@ -5,7 +5,7 @@ import { clientAddress } from '~/lib/server/client-address';
 import { json, parseBody, tooManyAttempts } from '~/lib/server/http';
 
 export const POST: APIRoute = async (context) => {
-  const input = await parseBody(context.request, signUpSchema);
+  const input = await parseBody(context, signUpSchema);
   if (!input.ok) return input.response;
   const result = await signUp(input.data, clientAddress(context));
   if (result.status === 'limited') return tooManyAttempts(result.retryAfterSeconds, context.request);

@@ -28,7 +28,7 @@ export const GET: APIRoute = async (context) => {
 export const POST: APIRoute = async (context) => {
   const user = await requireRole(context, 'instructor');
   if (isResponse(user)) return user;
-  const input = await parseBody(context.request, classInputSchema);
+  const input = await parseBody(context, classInputSchema);
   if (!input.ok) return input.response;
   const id = await createClass(user.id, input.data);
   return json(await classView((await findClass(id))!, 'manager'), 201, { location: `/api/classes/${id}` });

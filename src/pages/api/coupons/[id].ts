@@ -25,7 +25,7 @@ export const PATCH: APIRoute = async (context) => {
   const found = await loadForChange(context);
   if (isResponse(found)) return found;
   const { user, coupon } = found;
-  const changes = await parseJson(context.request, z.record(z.string(), z.unknown()));
+  const changes = await parseJson(context, z.record(z.string(), z.unknown()));
   if (!changes.ok) return changes.response;
   const merged = parseValue({ ...heatRecordOf(coupon), ...changes.data }, couponInputSchema);
   if (!merged.ok) return merged.response;

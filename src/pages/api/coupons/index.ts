@@ -31,7 +31,7 @@ export const GET: APIRoute = async (context) => {
 export const POST: APIRoute = async (context) => {
   const user = await requireCurrentUser(context);
   if (isResponse(user)) return user;
-  const input = await parseJson(context.request, couponInputSchema);
+  const input = await parseJson(context, couponInputSchema);
   if (!input.ok) return input.response;
   const id = await createCoupon(user.id, input.data);
   return json(couponView((await findCoupon(id))!, user), 201, { location: `/api/coupons/${id}` });

@@ -26,7 +26,7 @@ async function loadForChange(context: Parameters<APIRoute>[0]) {
 export const PATCH: APIRoute = async (context) => {
   const found = await loadForChange(context);
   if (isResponse(found)) return found;
-  const parsed = await parseJson(context.request, updateSheetSchema);
+  const parsed = await parseJson(context, updateSheetSchema);
   if (!parsed.ok) return parsed.response;
   const refusal = await changeSheet(found.sheet, parsed.data, found.user);
   if (refusal) return refusal;

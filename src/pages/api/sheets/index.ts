@@ -17,7 +17,7 @@ export const GET: APIRoute = async ({ locals }) => {
 export const POST: APIRoute = async (context) => {
   const user = await requireRole(context, 'instructor');
   if (isResponse(user)) return user;
-  const parsed = await parseJson(context.request, createSheetSchema);
+  const parsed = await parseJson(context, createSheetSchema);
   if (!parsed.ok) return parsed.response;
   const refusal = await checkClass(user, parsed.data.classId);
   if (refusal) return refusal;

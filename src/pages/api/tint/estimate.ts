@@ -3,8 +3,8 @@ import { json, parseJson, problem } from '~/lib/server/http';
 import { estimateRequestSchema, estimateResponse, lookUpModel } from '~/lib/tint';
 
 /** Candidate oxide thicknesses for a measured colour, one per interference order that fits, best first. */
-export const POST: APIRoute = async ({ request }) => {
-  const parsed = await parseJson(request, estimateRequestSchema);
+export const POST: APIRoute = async ({ request, locals }) => {
+  const parsed = await parseJson({ request, locals }, estimateRequestSchema);
   if (!parsed.ok) return parsed.response;
   const lookup = lookUpModel(parsed.data.alloy, 'alloy', ['optics']);
   if (!lookup.ok) return problem(lookup.status, lookup.message, lookup.field);

@@ -8,8 +8,8 @@ import { ladderRequestSchema } from '~/lib/tint';
 const CACHE_CONTROL = 'public, max-age=86400';
 
 /** The tint ladder of an alloy: colour and tint band against oxide thickness (a JSON body). */
-export const POST: APIRoute = async ({ request }) => {
-  const parsed = await parseJson(request, ladderRequestSchema);
+export const POST: APIRoute = async ({ request, locals }) => {
+  const parsed = await parseJson({ request, locals }, ladderRequestSchema);
   if (!parsed.ok) return parsed.response;
   const ladder = ladderAnswer(parsed.data);
   return ladder.ok ? sendCached(request, ladder.answer, 'no-cache') : problem(ladder.status, ladder.message, ladder.field);

@@ -10,7 +10,7 @@ import { lookUpModel, planPairRequestSchema, planPairResponse } from '~/lib/tint
  * Signed-in people get their library's fits where they have enough coupons; visitors reference data.
  */
 export const POST: APIRoute = async ({ request, locals }) => {
-  const parsed = await parseJson(request, planPairRequestSchema);
+  const parsed = await parseJson({ request, locals }, planPairRequestSchema);
   if (!parsed.ok) return parsed.response;
   const [first, second] = parsed.data.alloys.map((slug, i) => lookUpModel(slug, `alloys.${i}`, ['optics', 'heat']));
   if (!first.ok) return problem(first.status, first.message, first.field);

@@ -32,7 +32,7 @@ async function answer({ request, locals }: APIContext, plan: PredictRequest, cac
 }
 
 export const POST: APIRoute = async (context) => {
-  const parsed = await parseJson(context.request, predictRequestSchema);
+  const parsed = await parseJson(context, predictRequestSchema);
   if (!parsed.ok) return parsed.response;
   return answer(context, parsed.data, 'no-cache');
 };

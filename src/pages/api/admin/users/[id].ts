@@ -10,7 +10,7 @@ export const PATCH: APIRoute = async (context) => {
   if (isResponse(admin)) return admin;
   const params = parseValue(context.params, z.object({ id: z.string().min(1).max(255) }));
   if (!params.ok) return params.response;
-  const input = await parseBody(context.request, changeRoleSchema);
+  const input = await parseBody(context, changeRoleSchema);
   if (!input.ok) return input.response;
   const result = await changeRole(params.data.id, input.data.role);
   if (result === 'not-found') return notFound('That user');

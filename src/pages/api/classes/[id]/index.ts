@@ -15,7 +15,7 @@ export const GET: APIRoute = async (context) => {
 export const PATCH: APIRoute = async (context) => {
   const found = await classToChange(context, 'manage');
   if (isResponse(found)) return found;
-  const changes = await parseJson(context.request, classPatchSchema);
+  const changes = await parseJson(context, classPatchSchema);
   if (!changes.ok) return changes.response;
   await updateClass(found.cls.id, changes.data);
   return json(await classView((await findClass(found.cls.id))!, found.standing));

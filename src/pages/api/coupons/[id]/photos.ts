@@ -23,7 +23,7 @@ export const POST: APIRoute = async (context) => {
   if (isResponse(coupon)) return coupon;
   const denied = checkAccess(user, coupon, 'change', 'That coupon');
   if (denied) return denied;
-  const input = await parseJson(context.request, attachRequestSchema);
+  const input = await parseJson(context, attachRequestSchema);
   if (!input.ok) return input.response;
   try {
     const layerIds = coupon.layerDetails.map((layer) => layer.id);

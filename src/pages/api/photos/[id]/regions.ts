@@ -12,7 +12,7 @@ import { refusalResponse } from '~/lib/server/refusal';
 export const PUT: APIRoute = async (context) => {
   const found = await photoToChange(context);
   if (isResponse(found)) return found;
-  const input = await parseJson(context.request, regionsRequestSchema);
+  const input = await parseJson(context, regionsRequestSchema);
   if (!input.ok) return input.response;
   const layerIds = await layerIdsOf(found.coupon.id);
   // Every coupon has a layer: none means it was deleted just now, with this photo.

@@ -17,7 +17,7 @@ export const GET: APIRoute = async (context) => {
 export const POST: APIRoute = async (context) => {
   const found = await classToChange(context, 'manage');
   if (isResponse(found)) return found;
-  const input = await parseBody(context.request, inviteSchema);
+  const input = await parseBody(context, inviteSchema);
   if (!input.ok) return input.response;
   const outcomes = await inviteToClass(found.cls, found.user, input.data.emails);
   return json({ invitations: outcomes }, outcomes.some((outcome) => outcome.status === 'sent') ? 201 : 200);
