@@ -45,7 +45,7 @@ const READ_AHEAD_MAX_BYTES = 64 * 1024;
  * handed to Astro as text in `locals.bodyText`. The adapter (patched, scripts/patches/) then builds
  * the request without a body stream, and the routes read the text through lib/server/http.ts:
  * building a web stream over a small body and draining it again cost about a seventh of such a
- * request's CPU (`npm run bench -- load`). Auth.js's routes read their bodies themselves, so theirs
+ * request's server CPU (DEVELOPERS.md has the figures). Auth.js's routes read their bodies themselves, so theirs
  * stream as before, as does anything else (no length, over the cap, not JSON); the middleware caps it.
  */
 function readsAhead(req, pathname) {
