@@ -18,6 +18,9 @@ import { answerDatabaseOutage } from './lib/server/database-outage';
 // A missing or malformed setting stops the server before it answers anyone, naming the setting.
 config();
 
+/** The route auth-astro adds for Auth.js. */
+const AUTH_ROUTE_PATTERN = '/api/auth/[...auth]';
+
 /**
  * Sign-in attempts through Auth.js are limited per client address (all attempts) and per e-mail
  * address (failed password attempts, and every request for a sign-in link). Only Auth.js paths
@@ -25,9 +28,10 @@ config();
  * e-mail address counted here is the one Auth.js checks.
  */
 const limitSignIn = defineMiddleware(async (context, next) => {
-  const { pathname } = context.url;
-  if (!isAuthPath(pathname)) return next();
-  const route = authRoute(pathname);
+  if (!isAuthPath(context.url.pathname) && context.routePattern !== AUTH_ROUTE_PATTERN) return next();
+  // Auth.js reads the path as sent; Astro's `context.url` has it decoded, so `/api/%61uth/…` comes
+  // here too, and Auth.js would answer nothing for that spelling.
+  const route = authRoute(new URL(context.request.url).pathname);
   if (!route) return problem(404, 'There is nothing at this address.');
   if (!isSignInAttempt(context.request.method, route)) return next();
   if (!isPlainForm(context.request.headers.get('content-type'))) {

@@ -22,9 +22,20 @@ describe('errors under /api/', () => {
     ['an unknown Auth.js action', 'GET', '/api/auth/no-such-action', 404],
     ['an unknown Auth.js action, posted to', 'POST', '/api/auth/no-such-action', 404],
     ['an Auth.js route written with a doubled slash', 'GET', '/api/auth//session', 404],
+    ['an Auth.js route with a percent-encoded letter', 'GET', '/api/%61uth/session', 404],
   ])('%s: %s %s answers %i as JSON', async (_label, method, path, status) => {
     const response = await api(path, { method });
     expect(response.status).toBe(status);
+    await expectErrorShape(response);
+  });
+
+  it.each([
+    ['an unknown API route', '/api/no-such-route'],
+    ['an Auth.js route with a doubled slash before it', '/api//auth/signout'],
+    ['an Auth.js route with a percent-encoded letter', '/api/%61uth/signout'],
+  ])('%s, sent a JSON body (%s), answers 404 as JSON', async (_label, path) => {
+    const response = await api(path, { json: { anything: 1 } });
+    expect(response.status).toBe(404);
     await expectErrorShape(response);
   });
 
